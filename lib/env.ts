@@ -1,0 +1,70 @@
+import { z } from "zod";
+
+/**
+ * Environment, validated once. Every variable has a default that points at the local
+ * database and the local fakes, so a fresh clone runs with nothing set. With
+ * APP_ENV=production the secrets have no default and a missing one stops the start.
+ */
+const appEnv = z.enum(["development", "test", "production"]).default("development");
+
+const port = z.coerce.number().int().min(1).max(65535);
+
+const baseSchema = z.object({
+  APP_ENV: appEnv,
+  APP_URL: z.url().default("http://127.0.0.1:3000"),
+  DB_HOST: z.string().min(1).default("127.0.0.1"),
+  DB_PORT: port.default(3307),
+  DB_USER: z.string().min(1).default("app"),
+  DB_PASSWORD: z.string().default("app-local-password"),
+  DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/, "letters, digits and _ only").default("loopwright"),
+  DB_TEST_NAME: z.string().regex(/^[A-Za-z0-9_]+$/).default("loopwright_test"),
+  NEXTAUTH_SECRET: z.string().min(16).default("local-dev-secret-not-for-production"),
+  CURRENCY: z.string().length(3).toUpperCase().default("GBP"),
+  PLATFORM_FEE_PERCENT: z.coerce.number().min(0).max(50).default(12),
+  REQUEST_EXPIRY_DAYS: z.coerce.number().int().min(1).max(365).default(30),
+  DISPUTE_WINDOW_DAYS: z.coerce.number().int().min(1).max(60).default(7),
+  SMTP_HOST: z.string().min(1).default("127.0.0.1"),
+  SMTP_PORT: port.default(2525),
+  MAIL_FROM: z.string().min(3).default("Loopwright <no-reply@loopwright.test>"),
+  MAIL_FAKE_URL: z.url().default("http://127.0.0.1:2580"),
+  STRIPE_SECRET_KEY: z.string().startsWith("sk_").default("sk_test_local"),
+  STRIPE_WEBHOOK_SECRET: z.string().startsWith("whsec_").default("whsec_local"),
+  STRIPE_API_HOST: z.string().default("127.0.0.1"),
+  STRIPE_API_PORT: port.default(12111),
+  STRIPE_API_PROTOCOL: z.enum(["http", "https"]).default("http"),
+  UPLOADTHING_TOKEN: z.string().optional(),
+  UPLOADTHING_INGEST_URL: z.url().default("http://127.0.0.1:2590"),
+});
+
+export type Env = z.infer<typeof baseSchema>;
+
+const productionSecrets = ["NEXTAUTH_SECRET", "STRIPE_SECRET_KEY", "STRIPE_WEBHOOK_SECRET", "DB_PASSWORD"] as const;
+
+export class EnvError extends Error {}
+
+/** Parse an environment (process.env by default); throws EnvError naming each bad variable. */
+export function parseEnv(source: Record<string, string | undefined> = process.env): Env {
+  const cleaned = Object.fromEntries(
+    Object.entries(source).filter(([, v]) => v !== undefined && v !== ""),
+  );
+  const result = baseSchema.safeParse(cleaned);
+  if (!result.success) {
+    const lines = result.error.issues.map((i) => `  ${i.path.join(".")}: ${i.message}`);
+    throw new EnvError(`Invalid environment variables:\n${lines.join("\n")}`);
+  }
+  if (result.data.APP_ENV === "production") {
+    const missing = productionSecrets.filter((name) => !cleaned[name]);
+    if (missing.length > 0) {
+      throw new EnvError(`Missing environment variables for production: ${missing.join(", ")}`);
+    }
+  }
+  return result.data;
+}
+
+let cached: Env | undefined;
+
+/** The process environment, parsed on first use. */
+export function env(): Env {
+  cached ??= parseEnv();
+  return cached;
+}
