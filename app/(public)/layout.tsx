@@ -1,0 +1,11 @@
+import { SiteFooter, SiteHeader } from "@/components/layout/site-header";
+
+export default function PublicLayout({ children }: { children: React.ReactNode }) {
+  return (
+    <>
+      <SiteHeader />
+      <main className="mx-auto max-w-6xl px-4 py-8">{children}</main>
+      <SiteFooter />
+    </>
+  );
+}

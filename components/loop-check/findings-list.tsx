@@ -1,0 +1,62 @@
+import { LEVELS, type Finding, type Level } from "@/lib/calc/findings";
+import { LevelBadge } from "./level-badge";
+
+const GROUP_TITLES: Record<Level, string> = {
+  stop: "Stop: do not fill or commission until these are resolved",
+  fix: "Fix before filling",
+  note: "Notes",
+  ok: "Checks that pass",
+};
+
+export interface FindingsListProps {
+  findings: readonly Finding[];
+}
+
+/** Findings grouped by level, worst first, each with its numbers, source and what to do. */
+export function FindingsList({ findings }: FindingsListProps) {
+  const order = [...LEVELS].reverse();
+  return (
+    <div className="space-y-6">
+      {order.map((level) => {
+        const group = findings.filter((f) => f.level === level);
+        if (group.length === 0) return null;
+        return (
+          <section key={level} aria-label={GROUP_TITLES[level]} data-testid={`findings-${level}`}>
+            <h3 className="mb-2 text-lg font-bold text-slate-900">{GROUP_TITLES[level]}</h3>
+            <ul className="space-y-3">
+              {group.map((f, i) => (
+                <li key={`${f.key}-${i}`} data-finding={f.key} className="rounded-card border border-slate-200 bg-white p-4">
+                  <div className="flex flex-wrap items-start gap-2">
+                    <LevelBadge level={f.level} />
+                    <p className="flex-1 font-semibold text-slate-900">{f.title}</p>
+                  </div>
+                  {f.values.length > 0 ? (
+                    <table className="mt-3 w-full text-sm">
+                      <tbody>
+                        {f.values.map((v) => (
+                          <tr key={v.label} className="border-t border-slate-100">
+                            <th scope="row" className="py-1 pr-3 text-left font-normal text-slate-600">
+                              {v.label}
+                            </th>
+                            <td className="py-1 text-right font-mono tabular-nums text-slate-900">
+                              {v.value}
+                              {v.unit ? ` ${v.unit}` : ""}
+                            </td>
+                          </tr>
+                        ))}
+                      </tbody>
+                    </table>
+                  ) : null}
+                  <p className="mt-3 text-slate-800">
+                    <strong>What to do:</strong> {f.action}
+                  </p>
+                  <p className="mt-1 text-xs text-slate-500">Source: {f.source}</p>
+                </li>
+              ))}
+            </ul>
+          </section>
+        );
+      })}
+    </div>
+  );
+}

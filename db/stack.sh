@@ -1,0 +1,88 @@
+#!/usr/bin/env bash
+# The two commands. `npm start` → start, `npm test` → test, `npm run dev` → dev, `npm run stop` → stop.
+# Sets up everything a fresh clone needs: npm packages, MariaDB (Debian's package, private
+# instance on 127.0.0.1), the schema, the demo data, the local fakes, then the app or the tests.
+set -euo pipefail
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+cd "$ROOT"
+export NEXT_TELEMETRY_DISABLED=1
+PORT="${PORT:-3000}"
+
+log() { printf '[loopwright] %s\n' "$*"; }
+
+ensure_node_modules() {
+  # npm ci when node_modules is missing or older than the lock file.
+  if [ ! -f node_modules/.package-lock.json ] || [ package-lock.json -nt node_modules/.package-lock.json ]; then
+    log "installing npm packages (npm ci)"
+    npm ci --no-audit --no-fund --loglevel=error
+  fi
+}
+
+ensure_chromium() {
+  if [ -x /usr/bin/chromium ]; then return; fi
+  log "installing Debian's chromium for the browser tests"
+  if [ "$(id -u)" != 0 ]; then log "need root for apt-get install chromium"; exit 1; fi
+  apt-get update -qq
+  DEBIAN_FRONTEND=noninteractive apt-get install -y -qq --no-install-recommends chromium >/dev/null
+}
+
+PIDS=()
+cleanup() {
+  for pid in "${PIDS[@]:-}"; do
+    [ -n "$pid" ] && kill "$pid" 2>/dev/null || true
+  done
+  wait 2>/dev/null || true
+}
+
+start_background() { # name, command...
+  local name="$1"; shift
+  "$@" &
+  PIDS+=("$!")
+  log "started $name (pid $!)"
+}
+
+prepare() {
+  ensure_node_modules
+  node --import tsx lib/env-check.ts
+  bash db/server.sh start
+}
+
+case "${1:-}" in
+  start|dev)
+    prepare
+    npx tsx db/migrate.ts latest
+    npx tsx db/seed.ts
+    trap cleanup EXIT INT TERM
+    if [ "$1" = start ]; then
+      log "building the app"
+      npx next build >/tmp/loopwright-build.log 2>&1 || { tail -40 /tmp/loopwright-build.log; exit 1; }
+      start_background app node node_modules/next/dist/bin/next start -H 127.0.0.1 -p "$PORT"
+    else
+      start_background app node node_modules/next/dist/bin/next dev -H 127.0.0.1 -p "$PORT"
+    fi
+    npx tsx db/print-demo-logins.ts "http://127.0.0.1:$PORT"
+    log "Ctrl-C stops the app and the fakes; 'npm run stop' stops the database"
+    wait -n "${PIDS[@]}"
+    ;;
+  test)
+    started=$(date +%s)
+    prepare
+    ensure_chromium
+    DB_TARGET=test npx tsx db/migrate.ts latest
+    log "typecheck"; npx tsc --noEmit
+    log "lint"; npx eslint --max-warnings 0 .
+    log "build"; npx next build >/tmp/loopwright-build.log 2>&1 || { tail -60 /tmp/loopwright-build.log; exit 1; }
+    log "tests"
+    set +e
+    DB_TARGET=test npx vitest run
+    rc=$?
+    set -e
+    log "npm test took $(( $(date +%s) - started )) s"
+    exit $rc
+    ;;
+  stop)
+    bash db/server.sh stop
+    ;;
+  *)
+    echo "usage: db/stack.sh start|dev|test|stop" >&2; exit 2 ;;
+esac
