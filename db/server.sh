@@ -61,7 +61,7 @@ create_databases() {
        CREATE USER IF NOT EXISTS '$APP_USER'@'127.0.0.1' IDENTIFIED BY '$APP_PASSWORD';
        CREATE USER IF NOT EXISTS '$APP_USER'@'localhost' IDENTIFIED BY '$APP_PASSWORD';
        GRANT ALL PRIVILEGES ON \`$DB_APP\`.* TO '$APP_USER'@'127.0.0.1', '$APP_USER'@'localhost';
-       GRANT ALL PRIVILEGES ON \`$DB_TEST\`.* TO '$APP_USER'@'127.0.0.1', '$APP_USER'@'localhost';
+       GRANT ALL PRIVILEGES ON \`${DB_TEST}%\`.* TO '$APP_USER'@'127.0.0.1', '$APP_USER'@'localhost';
        FLUSH PRIVILEGES;"
 }
 
