@@ -1,11 +1,14 @@
 import type { Knex } from "knex";
 import { parseEnv } from "./lib/env";
+import { migrationSource } from "./db/migrations/index";
 
 /**
  * Knex settings for the CLI-free migration runner (db/migrate.ts) and the app.
  * `DB_TARGET=test` selects the separate test database.
  */
-export function knexConfig(target: "app" | "test" = process.env.DB_TARGET === "test" ? "test" : "app"): Knex.Config {
+export function knexConfig(
+  target: "app" | "test" = process.env.DB_TARGET === "test" ? "test" : "app",
+): Knex.Config {
   const e = parseEnv();
   return {
     client: "mysql2",
@@ -22,12 +25,7 @@ export function knexConfig(target: "app" | "test" = process.env.DB_TARGET === "t
       supportBigNumbers: true,
     },
     pool: { min: 0, max: 10 },
-    migrations: {
-      directory: "./db/migrations",
-      extension: "ts",
-      loadExtensions: [".ts"],
-      tableName: "knex_migrations",
-    },
+    migrations: { migrationSource, tableName: "knex_migrations" },
   };
 }
 

@@ -12,7 +12,11 @@ export default defineConfig({
     ],
   },
   test: {
-    include: ["tests/unit/**/*.test.ts", "tests/integration/**/*.test.ts", "tests/e2e/**/*.test.ts"],
+    include: [
+      "tests/unit/**/*.test.ts",
+      "tests/integration/**/*.test.ts",
+      "tests/e2e/**/*.test.ts",
+    ],
     environment: "node",
     // Integration and browser tests share one database and one server: run files one at a time.
     fileParallelism: false,

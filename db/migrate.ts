@@ -12,7 +12,11 @@ async function main(): Promise<void> {
   try {
     if (command === "latest") {
       const [batch, names] = await knex.migrate.latest();
-      console.log(names.length ? `[migrate] batch ${batch}: ${names.join(", ")}` : "[migrate] schema is up to date");
+      console.log(
+        names.length
+          ? `[migrate] batch ${batch}: ${names.join(", ")}`
+          : "[migrate] schema is up to date",
+      );
     } else if (command === "rollback" || command === "rollback-all") {
       const [batch, names] = await knex.migrate.rollback(undefined, command === "rollback-all");
       console.log(`[migrate] rolled back batch ${batch}: ${names.join(", ") || "nothing"}`);

@@ -7,7 +7,11 @@ const rows = [
   ...DEMO_USERS.homeowners.map((h) => ["homeowner", h.email]),
   ...DEMO_USERS.reviewers.map((r) => [`reviewer (${r.state})`, r.email]),
 ];
-console.log(`\nLoopwright is at ${url}  (loop check: ${url}/loop-check, health: ${url}/api/health)`);
-console.log(`Demo sign-ins, all with the password "${DEMO_PASSWORD}" (sign-in arrives with the accounts work):`);
+console.log(
+  `\nLoopwright is at ${url}  (loop check: ${url}/loop-check, health: ${url}/api/health)`,
+);
+console.log(
+  `Demo sign-ins, all with the password "${DEMO_PASSWORD}" (sign-in arrives with the accounts work):`,
+);
 for (const [role, email] of rows) console.log(`  ${role!.padEnd(22)} ${email}`);
 console.log("");

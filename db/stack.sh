@@ -71,6 +71,7 @@ case "${1:-}" in
     DB_TARGET=test npx tsx db/migrate.ts latest
     log "typecheck"; npx tsc --noEmit
     log "lint"; npx eslint --max-warnings 0 .
+    log "format"; npx prettier --check --log-level warn .
     log "build"; npx next build >/tmp/loopwright-build.log 2>&1 || { tail -60 /tmp/loopwright-build.log; exit 1; }
     log "tests"
     set +e

@@ -16,8 +16,14 @@ const baseSchema = z.object({
   DB_PORT: port.default(3307),
   DB_USER: z.string().min(1).default("app"),
   DB_PASSWORD: z.string().default("app-local-password"),
-  DB_NAME: z.string().regex(/^[A-Za-z0-9_]+$/, "letters, digits and _ only").default("loopwright"),
-  DB_TEST_NAME: z.string().regex(/^[A-Za-z0-9_]+$/).default("loopwright_test"),
+  DB_NAME: z
+    .string()
+    .regex(/^[A-Za-z0-9_]+$/, "letters, digits and _ only")
+    .default("loopwright"),
+  DB_TEST_NAME: z
+    .string()
+    .regex(/^[A-Za-z0-9_]+$/)
+    .default("loopwright_test"),
   NEXTAUTH_SECRET: z.string().min(16).default("local-dev-secret-not-for-production"),
   CURRENCY: z.string().length(3).toUpperCase().default("GBP"),
   PLATFORM_FEE_PERCENT: z.coerce.number().min(0).max(50).default(12),
@@ -38,7 +44,12 @@ const baseSchema = z.object({
 
 export type Env = z.infer<typeof baseSchema>;
 
-const productionSecrets = ["NEXTAUTH_SECRET", "STRIPE_SECRET_KEY", "STRIPE_WEBHOOK_SECRET", "DB_PASSWORD"] as const;
+const productionSecrets = [
+  "NEXTAUTH_SECRET",
+  "STRIPE_SECRET_KEY",
+  "STRIPE_WEBHOOK_SECRET",
+  "DB_PASSWORD",
+] as const;
 
 export class EnvError extends Error {}
 

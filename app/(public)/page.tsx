@@ -42,13 +42,15 @@ export default function LandingPage() {
       <section className="grid gap-8 md:grid-cols-[3fr_2fr] md:items-center">
         <div className="space-y-5">
           <h1 className="text-4xl font-bold leading-tight text-slate-900 md:text-5xl">
-            Get your solar loop checked <span className="text-copper-600">before it is filled</span>.
+            Get your solar loop checked <span className="text-copper-600">before it is filled</span>
+            .
           </h1>
           <p className="text-lg text-slate-700">
-            A solar primary loop is not ordinary plumbing. A collector that stops circulating in full sun can pass
-            200 °C; the loop is pressurised and needs room for steam, a relief valve, a check valve, air separation and
-            the right glycol mix. Loopwright checks the numbers for free and connects you with a verified,
-            solar-competent tradesperson for a paid review.
+            A solar primary loop is not ordinary plumbing. A collector that stops circulating in
+            full sun can pass 200 °C; the loop is pressurised and needs room for steam, a relief
+            valve, a check valve, air separation and the right glycol mix. Loopwright checks the
+            numbers for free and connects you with a verified, solar-competent tradesperson for a
+            paid review.
           </p>
           <div className="flex flex-wrap gap-3">
             <ButtonLink href="/loop-check">Try the loop check</ButtonLink>

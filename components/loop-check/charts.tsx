@@ -17,21 +17,60 @@ type Charts = LoopCheckResult["charts"];
 
 /** Loop pressure from cold fill to the highest liquid temperature, the stagnation point and the relief setting. */
 export function PressureChart({ data }: { data: NonNullable<Charts["pressure"]> }) {
-  const top = Math.ceil(Math.max(data.reliefBar, ...data.points.map((p) => p.pressureBar ?? 0)) + 0.5);
+  const top = Math.ceil(
+    Math.max(data.reliefBar, ...data.points.map((p) => p.pressureBar ?? 0)) + 0.5,
+  );
   return (
     <figure className="rounded-card border border-slate-200 bg-white p-4">
-      <figcaption className="mb-2 font-semibold">Loop pressure, cold to hot, against the relief setting</figcaption>
-      <div className="h-64" role="img" aria-label={`Loop pressure rises from ${data.fillBar} bar cold; relief valve at ${data.reliefBar} bar; about ${data.stagnation.pressureBar ?? "over the relief setting"} bar at stagnation.`}>
+      <figcaption className="mb-2 font-semibold">
+        Loop pressure, cold to hot, against the relief setting
+      </figcaption>
+      <div
+        className="h-64"
+        role="img"
+        aria-label={`Loop pressure rises from ${data.fillBar} bar cold; relief valve at ${data.reliefBar} bar; about ${data.stagnation.pressureBar ?? "over the relief setting"} bar at stagnation.`}
+      >
         <ResponsiveContainer width="100%" height="100%">
           <LineChart data={data.points} margin={{ top: 10, right: 20, bottom: 20, left: 0 }}>
             <CartesianGrid stroke="#e2e8f0" />
-            <XAxis dataKey="tempC" type="number" domain={["dataMin", Math.max(200, data.stagnation.tempC)]} unit=" °C" />
+            <XAxis
+              dataKey="tempC"
+              type="number"
+              domain={["dataMin", Math.max(200, data.stagnation.tempC)]}
+              unit=" °C"
+            />
             <YAxis domain={[0, top]} unit=" bar" width={60} />
-            <Tooltip formatter={(v) => [`${v} bar`, "pressure"]} labelFormatter={(l) => `${l} °C`} />
-            <ReferenceLine y={data.reliefBar} stroke="#b42318" strokeDasharray="6 4" label={{ value: `relief ${data.reliefBar} bar`, position: "insideTopRight", fill: "#b42318" }} />
-            <Line type="monotone" dataKey="pressureBar" stroke="#9d4f25" strokeWidth={3} dot={false} isAnimationActive={false} />
+            <Tooltip
+              formatter={(v) => [`${v} bar`, "pressure"]}
+              labelFormatter={(l) => `${l} °C`}
+            />
+            <ReferenceLine
+              y={data.reliefBar}
+              stroke="#b42318"
+              strokeDasharray="6 4"
+              label={{
+                value: `relief ${data.reliefBar} bar`,
+                position: "insideTopRight",
+                fill: "#b42318",
+              }}
+            />
+            <Line
+              type="monotone"
+              dataKey="pressureBar"
+              stroke="#9d4f25"
+              strokeWidth={3}
+              dot={false}
+              isAnimationActive={false}
+            />
             {data.stagnation.pressureBar !== null ? (
-              <ReferenceDot x={data.stagnation.tempC} y={data.stagnation.pressureBar} r={6} fill="#f8c537" stroke="#7e3f1f" label={{ value: "stagnation, with steam", position: "top" }} />
+              <ReferenceDot
+                x={data.stagnation.tempC}
+                y={data.stagnation.pressureBar}
+                r={6}
+                fill="#f8c537"
+                stroke="#7e3f1f"
+                label={{ value: "stagnation, with steam", position: "top" }}
+              />
             ) : null}
           </LineChart>
         </ResponsiveContainer>
@@ -44,17 +83,50 @@ export function PressureChart({ data }: { data: NonNullable<Charts["pressure"]> 
 export function FreezeChart({ data }: { data: NonNullable<Charts["freeze"]> }) {
   return (
     <figure className="rounded-card border border-slate-200 bg-white p-4">
-      <figcaption className="mb-2 font-semibold">Freezing point of propylene glycol against concentration</figcaption>
-      <div className="h-64" role="img" aria-label={`Freezing point falls as glycol rises; site minimum ${data.designMinC} °C; chosen mix ${data.percent} %.`}>
+      <figcaption className="mb-2 font-semibold">
+        Freezing point of propylene glycol against concentration
+      </figcaption>
+      <div
+        className="h-64"
+        role="img"
+        aria-label={`Freezing point falls as glycol rises; site minimum ${data.designMinC} °C; chosen mix ${data.percent} %.`}
+      >
         <ResponsiveContainer width="100%" height="100%">
           <LineChart data={data.points} margin={{ top: 10, right: 20, bottom: 20, left: 0 }}>
             <CartesianGrid stroke="#e2e8f0" />
             <XAxis dataKey="percent" type="number" domain={[0, 60]} unit=" %" />
             <YAxis unit=" °C" width={60} domain={[-55, 5]} />
-            <Tooltip formatter={(v) => [`${v} °C`, "freezing point"]} labelFormatter={(l) => `${l} % by mass`} />
-            <ReferenceLine y={data.designMinC} stroke="#2f5f8a" strokeDasharray="6 4" label={{ value: `site minimum ${data.designMinC} °C`, position: "insideBottomLeft", fill: "#2f5f8a" }} />
-            <ReferenceLine x={data.percent} stroke="#9d4f25" label={{ value: `your mix ${data.percent} %`, position: "insideTopRight", fill: "#7e3f1f" }} />
-            <Line type="monotone" dataKey="freezeC" stroke="#9d4f25" strokeWidth={3} dot={false} isAnimationActive={false} />
+            <Tooltip
+              formatter={(v) => [`${v} °C`, "freezing point"]}
+              labelFormatter={(l) => `${l} % by mass`}
+            />
+            <ReferenceLine
+              y={data.designMinC}
+              stroke="#2f5f8a"
+              strokeDasharray="6 4"
+              label={{
+                value: `site minimum ${data.designMinC} °C`,
+                position: "insideBottomLeft",
+                fill: "#2f5f8a",
+              }}
+            />
+            <ReferenceLine
+              x={data.percent}
+              stroke="#9d4f25"
+              label={{
+                value: `your mix ${data.percent} %`,
+                position: "insideTopRight",
+                fill: "#7e3f1f",
+              }}
+            />
+            <Line
+              type="monotone"
+              dataKey="freezeC"
+              stroke="#9d4f25"
+              strokeWidth={3}
+              dot={false}
+              isAnimationActive={false}
+            />
           </LineChart>
         </ResponsiveContainer>
       </div>

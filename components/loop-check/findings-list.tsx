@@ -25,7 +25,11 @@ export function FindingsList({ findings }: FindingsListProps) {
             <h3 className="mb-2 text-lg font-bold text-slate-900">{GROUP_TITLES[level]}</h3>
             <ul className="space-y-3">
               {group.map((f, i) => (
-                <li key={`${f.key}-${i}`} data-finding={f.key} className="rounded-card border border-slate-200 bg-white p-4">
+                <li
+                  key={`${f.key}-${i}`}
+                  data-finding={f.key}
+                  className="rounded-card border border-slate-200 bg-white p-4"
+                >
                   <div className="flex flex-wrap items-start gap-2">
                     <LevelBadge level={f.level} />
                     <p className="flex-1 font-semibold text-slate-900">{f.title}</p>
@@ -35,7 +39,10 @@ export function FindingsList({ findings }: FindingsListProps) {
                       <tbody>
                         {f.values.map((v) => (
                           <tr key={v.label} className="border-t border-slate-100">
-                            <th scope="row" className="py-1 pr-3 text-left font-normal text-slate-600">
+                            <th
+                              scope="row"
+                              className="py-1 pr-3 text-left font-normal text-slate-600"
+                            >
                               {v.label}
                             </th>
                             <td className="py-1 text-right font-mono tabular-nums text-slate-900">

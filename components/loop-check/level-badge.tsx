@@ -15,7 +15,11 @@ export function LevelBadge({ level, className }: { level: Level; className?: str
   return (
     <span
       data-level={level}
-      className={cn("inline-flex items-center gap-1 rounded-full border px-2.5 py-0.5 text-sm font-bold", tone, className)}
+      className={cn(
+        "inline-flex items-center gap-1 rounded-full border px-2.5 py-0.5 text-sm font-bold",
+        tone,
+        className,
+      )}
     >
       <Icon aria-hidden className="h-4 w-4" />
       {LEVEL_LABELS[level]}

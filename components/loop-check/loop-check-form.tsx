@@ -28,7 +28,12 @@ export function LoopCheckForm({ defaultValues }: LoopCheckFormProps) {
 
   return (
     <div className="grid gap-8 lg:grid-cols-[minmax(0,5fr)_minmax(0,6fr)]">
-      <form onSubmit={form.handleSubmit(onValid)} noValidate aria-label="System description" className="space-y-6">
+      <form
+        onSubmit={form.handleSubmit(onValid)}
+        noValidate
+        aria-label="System description"
+        className="space-y-6"
+      >
         {SECTIONS.map((section) => (
           <Card key={section.id}>
             <SectionFields form={form} section={section} />

@@ -25,7 +25,9 @@ export function LoopCheckResults({ result }: { result: LoopCheckResult }) {
         {result.charts.freeze ? <FreezeChart data={result.charts.freeze} /> : null}
       </div>
       <FindingsList findings={result.findings} />
-      <p className="rounded-card border border-slate-300 bg-slate-100 p-4 text-sm font-semibold">{ADVISORY_LINE}</p>
+      <p className="rounded-card border border-slate-300 bg-slate-100 p-4 text-sm font-semibold">
+        {ADVISORY_LINE}
+      </p>
     </section>
   );
 }

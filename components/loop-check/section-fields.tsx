@@ -16,28 +16,46 @@ function errorText(errors: FieldErrors<SystemInput>, name: string): string | und
 }
 
 /** Empty number inputs become undefined (optional fields) instead of NaN. */
-const asNumber = (v: unknown) => (v === "" || v === null || v === undefined ? undefined : Number(v));
+const asNumber = (v: unknown) =>
+  v === "" || v === null || v === undefined ? undefined : Number(v);
 
 function Control({ form, def, name }: { form: Form; def: FieldDef; name: string }) {
   const { register, formState } = form;
   const id = toId(name);
   const error = errorText(formState.errors, name);
-  const aria = { "aria-invalid": error ? true : undefined, "aria-describedby": `${id}-error` } as const;
+  const aria = {
+    "aria-invalid": error ? true : undefined,
+    "aria-describedby": `${id}-error`,
+  } as const;
   // Paths come from the section data, so they are checked at run time by the schema rather than by the type.
   const path = name as Parameters<Form["register"]>[0];
   if (def.kind === "checkbox") {
     return (
       <div className="flex flex-col gap-1">
         <label htmlFor={id} className="flex min-h-12 items-center gap-3 text-base">
-          <input id={id} type="checkbox" className="h-6 w-6 accent-copper-600" {...aria} {...register(path)} />
+          <input
+            id={id}
+            type="checkbox"
+            className="h-6 w-6 accent-copper-600"
+            {...aria}
+            {...register(path)}
+          />
           {def.label}
         </label>
-        <p id={`${id}-error`} aria-live="polite" className="text-sm text-level-stop">{error ?? ""}</p>
+        <p id={`${id}-error`} aria-live="polite" className="text-sm text-level-stop">
+          {error ?? ""}
+        </p>
       </div>
     );
   }
   return (
-    <Field id={id} label={def.label} unit={def.kind === "number" ? def.unit : undefined} hint={def.hint} error={error}>
+    <Field
+      id={id}
+      label={def.label}
+      unit={def.kind === "number" ? def.unit : undefined}
+      hint={def.hint}
+      error={error}
+    >
       {def.kind === "select" ? (
         <select id={id} className={inputClass} {...aria} {...register(path)}>
           {def.options.map((o) => (
@@ -62,7 +80,10 @@ function Control({ form, def, name }: { form: Form; def: FieldDef; name: string 
           type="text"
           className={inputClass}
           {...aria}
-          {...register(path, def.optional ? { setValueAs: (v: string) => (v === "" ? undefined : v) } : {})}
+          {...register(
+            path,
+            def.optional ? { setValueAs: (v: string) => (v === "" ? undefined : v) } : {},
+          )}
         />
       )}
     </Field>
@@ -84,7 +105,12 @@ function ListFields({ form, list }: { form: Form; list: NonNullable<SectionDef["
           </legend>
           <div className="grid gap-x-4 gap-y-2 sm:grid-cols-2">
             {list.fields.map((def) => (
-              <Control key={def.name} form={form} def={def} name={`${list.name}.${index}.${def.name}`} />
+              <Control
+                key={def.name}
+                form={form}
+                def={def}
+                name={`${list.name}.${index}.${def.name}`}
+              />
             ))}
           </div>
           <Button type="button" variant="ghost" onClick={() => remove(index)} className="mt-2">
@@ -92,7 +118,11 @@ function ListFields({ form, list }: { form: Form; list: NonNullable<SectionDef["
           </Button>
         </fieldset>
       ))}
-      {listError ? <p role="alert" className="text-sm font-medium text-level-stop">{listError}</p> : null}
+      {listError ? (
+        <p role="alert" className="text-sm font-medium text-level-stop">
+          {listError}
+        </p>
+      ) : null}
       <Button type="button" variant="secondary" onClick={() => append(list.empty as never)}>
         Add {list.itemLabel.toLowerCase()}
       </Button>

@@ -12,7 +12,9 @@ export type ButtonVariant = keyof typeof variants;
 const base =
   "inline-flex min-h-12 items-center justify-center gap-2 rounded-lg px-5 py-2.5 text-base font-semibold transition-colors disabled:cursor-not-allowed";
 
-export type ButtonProps = React.ButtonHTMLAttributes<HTMLButtonElement> & { variant?: ButtonVariant };
+export type ButtonProps = React.ButtonHTMLAttributes<HTMLButtonElement> & {
+  variant?: ButtonVariant;
+};
 
 export function Button({ variant = "primary", className, ...props }: ButtonProps) {
   return <button className={cn(base, variants[variant], className)} {...props} />;

@@ -26,9 +26,13 @@ export const CAUTIONS = [
 
 export function Cautions({ compact = false }: { compact?: boolean }) {
   return (
-    <aside aria-labelledby="cautions-title" className="rounded-card border-2 border-sun-400 bg-amber-50 p-5">
+    <aside
+      aria-labelledby="cautions-title"
+      className="rounded-card border-2 border-sun-400 bg-amber-50 p-5"
+    >
       <h2 id="cautions-title" className="flex items-center gap-2 text-lg font-bold text-slate-900">
-        <TriangleAlert aria-hidden className="h-5 w-5 text-copper-700" /> Before anyone goes up or fills anything
+        <TriangleAlert aria-hidden className="h-5 w-5 text-copper-700" /> Before anyone goes up or
+        fills anything
       </h2>
       <ul className={compact ? "mt-3 space-y-2 text-sm" : "mt-3 grid gap-3 sm:grid-cols-2"}>
         {CAUTIONS.map((c) => (

@@ -20,7 +20,11 @@ export function Field({ id, label, unit, hint, error, children, className }: Fie
       </label>
       {children}
       {hint && !error ? <p className="text-sm text-slate-500">{hint}</p> : null}
-      <p id={`${id}-error`} aria-live="polite" className="min-h-0 text-sm font-medium text-level-stop">
+      <p
+        id={`${id}-error`}
+        aria-live="polite"
+        className="min-h-0 text-sm font-medium text-level-stop"
+      >
         {error ?? ""}
       </p>
     </div>

@@ -12,8 +12,12 @@ export async function up(knex: Knex): Promise<void> {
     t.boolean("notify_new_message").notNullable().defaultTo(true);
     t.boolean("notify_new_quote").notNullable().defaultTo(true);
     t.boolean("is_demo").notNullable().defaultTo(false);
-    t.dateTime("created_at", { precision: 3 }).notNullable().defaultTo(knex.raw("CURRENT_TIMESTAMP(3)"));
-    t.dateTime("updated_at", { precision: 3 }).notNullable().defaultTo(knex.raw("CURRENT_TIMESTAMP(3) ON UPDATE CURRENT_TIMESTAMP(3)"));
+    t.dateTime("created_at", { precision: 3 })
+      .notNullable()
+      .defaultTo(knex.raw("CURRENT_TIMESTAMP(3)"));
+    t.dateTime("updated_at", { precision: 3 })
+      .notNullable()
+      .defaultTo(knex.raw("CURRENT_TIMESTAMP(3) ON UPDATE CURRENT_TIMESTAMP(3)"));
     t.index(["role", "created_at"]);
   });
 
@@ -25,7 +29,9 @@ export async function up(knex: Knex): Promise<void> {
     t.specificType("token_hash", "CHAR(64)").notNullable().unique();
     t.dateTime("expires_at", { precision: 3 }).notNullable();
     t.dateTime("used_at", { precision: 3 }).nullable();
-    t.dateTime("created_at", { precision: 3 }).notNullable().defaultTo(knex.raw("CURRENT_TIMESTAMP(3)"));
+    t.dateTime("created_at", { precision: 3 })
+      .notNullable()
+      .defaultTo(knex.raw("CURRENT_TIMESTAMP(3)"));
     t.index(["user_id", "purpose"]);
   });
 
@@ -54,8 +60,12 @@ export async function up(knex: Knex): Promise<void> {
     t.boolean("payouts_enabled").notNullable().defaultTo(false);
     t.dateTime("suspended_at", { precision: 3 }).nullable();
     t.text("suspended_reason").nullable();
-    t.dateTime("created_at", { precision: 3 }).notNullable().defaultTo(knex.raw("CURRENT_TIMESTAMP(3)"));
-    t.dateTime("updated_at", { precision: 3 }).notNullable().defaultTo(knex.raw("CURRENT_TIMESTAMP(3) ON UPDATE CURRENT_TIMESTAMP(3)"));
+    t.dateTime("created_at", { precision: 3 })
+      .notNullable()
+      .defaultTo(knex.raw("CURRENT_TIMESTAMP(3)"));
+    t.dateTime("updated_at", { precision: 3 })
+      .notNullable()
+      .defaultTo(knex.raw("CURRENT_TIMESTAMP(3) ON UPDATE CURRENT_TIMESTAMP(3)"));
     t.index(["region"]);
   });
 
@@ -70,10 +80,22 @@ export async function up(knex: Knex): Promise<void> {
     t.string("mime_type", 100).notNullable();
     t.integer("size_bytes").unsigned().notNullable();
     t.string("caption", 200).nullable();
-    t.enu("tag", ["collector", "roof", "pump_station", "vessel", "cylinder", "pipework", "other"]).nullable();
+    t.enu("tag", [
+      "collector",
+      "roof",
+      "pump_station",
+      "vessel",
+      "cylinder",
+      "pipework",
+      "other",
+    ]).nullable();
     t.dateTime("deleted_at", { precision: 3 }).nullable();
-    t.dateTime("created_at", { precision: 3 }).notNullable().defaultTo(knex.raw("CURRENT_TIMESTAMP(3)"));
-    t.dateTime("updated_at", { precision: 3 }).notNullable().defaultTo(knex.raw("CURRENT_TIMESTAMP(3) ON UPDATE CURRENT_TIMESTAMP(3)"));
+    t.dateTime("created_at", { precision: 3 })
+      .notNullable()
+      .defaultTo(knex.raw("CURRENT_TIMESTAMP(3)"));
+    t.dateTime("updated_at", { precision: 3 })
+      .notNullable()
+      .defaultTo(knex.raw("CURRENT_TIMESTAMP(3) ON UPDATE CURRENT_TIMESTAMP(3)"));
     t.index(["project_id", "purpose"]);
     t.index(["owner_id", "purpose"]);
   });
@@ -91,14 +113,24 @@ export async function up(knex: Knex): Promise<void> {
     t.string("issuer", 160).notNullable();
     t.string("number", 80).notNullable();
     t.date("expires_on").notNullable();
-    t.bigInteger("evidence_attachment_id").unsigned().nullable().references("attachments.id").onDelete("SET NULL");
-    t.enu("status", ["pending", "verified", "rejected", "expired"]).notNullable().defaultTo("pending");
+    t.bigInteger("evidence_attachment_id")
+      .unsigned()
+      .nullable()
+      .references("attachments.id")
+      .onDelete("SET NULL");
+    t.enu("status", ["pending", "verified", "rejected", "expired"])
+      .notNullable()
+      .defaultTo("pending");
     t.text("admin_reason").nullable();
     t.bigInteger("reviewed_by").unsigned().nullable().references("users.id").onDelete("SET NULL");
     t.dateTime("reviewed_at", { precision: 3 }).nullable();
     t.dateTime("expiry_warned_at", { precision: 3 }).nullable();
-    t.dateTime("created_at", { precision: 3 }).notNullable().defaultTo(knex.raw("CURRENT_TIMESTAMP(3)"));
-    t.dateTime("updated_at", { precision: 3 }).notNullable().defaultTo(knex.raw("CURRENT_TIMESTAMP(3) ON UPDATE CURRENT_TIMESTAMP(3)"));
+    t.dateTime("created_at", { precision: 3 })
+      .notNullable()
+      .defaultTo(knex.raw("CURRENT_TIMESTAMP(3)"));
+    t.dateTime("updated_at", { precision: 3 })
+      .notNullable()
+      .defaultTo(knex.raw("CURRENT_TIMESTAMP(3) ON UPDATE CURRENT_TIMESTAMP(3)"));
     t.index(["status", "created_at"]);
     t.index(["reviewer_id", "kind"]);
     t.index(["status", "expires_on"]);

@@ -29,8 +29,16 @@ export async function up(knex: Knex): Promise<void> {
 
   await knex.schema.createTable("requests", (t) => {
     t.bigIncrements("id").primary();
-    t.bigInteger("project_id").unsigned().notNullable().references("projects.id").onDelete("CASCADE");
-    t.bigInteger("homeowner_id").unsigned().notNullable().references("users.id").onDelete("CASCADE");
+    t.bigInteger("project_id")
+      .unsigned()
+      .notNullable()
+      .references("projects.id")
+      .onDelete("CASCADE");
+    t.bigInteger("homeowner_id")
+      .unsigned()
+      .notNullable()
+      .references("users.id")
+      .onDelete("CASCADE");
     t.enu("kind", ["remote_check", "site_visit"]).notNullable();
     t.enu("status", ["open", "awarded", "cancelled", "expired"]).notNullable().defaultTo("open");
     t.text("questions").notNullable();
@@ -58,7 +66,11 @@ export async function up(knex: Knex): Promise<void> {
 
   await knex.schema.createTable("quotes", (t) => {
     t.bigIncrements("id").primary();
-    t.bigInteger("request_id").unsigned().notNullable().references("requests.id").onDelete("CASCADE");
+    t.bigInteger("request_id")
+      .unsigned()
+      .notNullable()
+      .references("requests.id")
+      .onDelete("CASCADE");
     t.bigInteger("reviewer_id").unsigned().notNullable().references("users.id").onDelete("CASCADE");
     t.integer("price_minor").unsigned().notNullable();
     t.specificType("currency", "CHAR(3)").notNullable().defaultTo("GBP");
@@ -81,7 +93,11 @@ export async function up(knex: Knex): Promise<void> {
   // A thread per request and quoting reviewer; it carries on into the job after acceptance.
   await knex.schema.createTable("message_threads", (t) => {
     t.bigIncrements("id").primary();
-    t.bigInteger("request_id").unsigned().notNullable().references("requests.id").onDelete("CASCADE");
+    t.bigInteger("request_id")
+      .unsigned()
+      .notNullable()
+      .references("requests.id")
+      .onDelete("CASCADE");
     t.bigInteger("reviewer_id").unsigned().notNullable().references("users.id").onDelete("CASCADE");
     t.dateTime("last_message_at", { precision: 3 }).nullable();
     t.dateTime("created_at", { precision: 3 }).notNullable().defaultTo(now(knex));
@@ -91,7 +107,11 @@ export async function up(knex: Knex): Promise<void> {
 
   await knex.schema.createTable("messages", (t) => {
     t.bigIncrements("id").primary();
-    t.bigInteger("thread_id").unsigned().notNullable().references("message_threads.id").onDelete("CASCADE");
+    t.bigInteger("thread_id")
+      .unsigned()
+      .notNullable()
+      .references("message_threads.id")
+      .onDelete("CASCADE");
     t.bigInteger("sender_id").unsigned().notNullable().references("users.id").onDelete("CASCADE");
     t.text("body_md").notNullable();
     t.dateTime("created_at", { precision: 3 }).notNullable().defaultTo(now(knex));
@@ -99,7 +119,11 @@ export async function up(knex: Knex): Promise<void> {
   });
 
   await knex.schema.createTable("message_reads", (t) => {
-    t.bigInteger("thread_id").unsigned().notNullable().references("message_threads.id").onDelete("CASCADE");
+    t.bigInteger("thread_id")
+      .unsigned()
+      .notNullable()
+      .references("message_threads.id")
+      .onDelete("CASCADE");
     t.bigInteger("user_id").unsigned().notNullable().references("users.id").onDelete("CASCADE");
     t.bigInteger("last_read_message_id").unsigned().notNullable().defaultTo(0);
     t.dateTime("last_emailed_at", { precision: 3 }).nullable();
@@ -109,7 +133,11 @@ export async function up(knex: Knex): Promise<void> {
   // What the homeowner measured at first fill, compared with the design; the reviewer may countersign.
   await knex.schema.createTable("first_fill_records", (t) => {
     t.bigIncrements("id").primary();
-    t.bigInteger("project_id").unsigned().notNullable().references("projects.id").onDelete("CASCADE");
+    t.bigInteger("project_id")
+      .unsigned()
+      .notNullable()
+      .references("projects.id")
+      .onDelete("CASCADE");
     t.bigInteger("job_id").unsigned().nullable(); // FK added with jobs
     t.decimal("fill_pressure_cold_bar", 4, 2).notNullable();
     t.decimal("fill_pressure_hot_bar", 4, 2).nullable();
@@ -119,7 +147,11 @@ export async function up(knex: Knex): Promise<void> {
     t.decimal("flow_rate_lph", 6, 1).nullable();
     t.text("notes").nullable();
     t.dateTime("recorded_at", { precision: 3 }).notNullable().defaultTo(now(knex));
-    t.bigInteger("countersigned_by").unsigned().nullable().references("users.id").onDelete("SET NULL");
+    t.bigInteger("countersigned_by")
+      .unsigned()
+      .nullable()
+      .references("users.id")
+      .onDelete("SET NULL");
     t.dateTime("countersigned_at", { precision: 3 }).nullable();
     t.dateTime("created_at", { precision: 3 }).notNullable().defaultTo(now(knex));
     t.dateTime("updated_at", { precision: 3 }).notNullable().defaultTo(onUpdate(knex));

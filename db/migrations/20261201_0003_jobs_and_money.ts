@@ -7,10 +7,28 @@ const onUpdate = (knex: Knex) => knex.raw("CURRENT_TIMESTAMP(3) ON UPDATE CURREN
 export async function up(knex: Knex): Promise<void> {
   await knex.schema.createTable("jobs", (t) => {
     t.bigIncrements("id").primary();
-    t.bigInteger("request_id").unsigned().notNullable().unique().references("requests.id").onDelete("RESTRICT");
-    t.bigInteger("quote_id").unsigned().notNullable().unique().references("quotes.id").onDelete("RESTRICT");
-    t.bigInteger("homeowner_id").unsigned().notNullable().references("users.id").onDelete("RESTRICT");
-    t.bigInteger("reviewer_id").unsigned().notNullable().references("users.id").onDelete("RESTRICT");
+    t.bigInteger("request_id")
+      .unsigned()
+      .notNullable()
+      .unique()
+      .references("requests.id")
+      .onDelete("RESTRICT");
+    t.bigInteger("quote_id")
+      .unsigned()
+      .notNullable()
+      .unique()
+      .references("quotes.id")
+      .onDelete("RESTRICT");
+    t.bigInteger("homeowner_id")
+      .unsigned()
+      .notNullable()
+      .references("users.id")
+      .onDelete("RESTRICT");
+    t.bigInteger("reviewer_id")
+      .unsigned()
+      .notNullable()
+      .references("users.id")
+      .onDelete("RESTRICT");
     // The states of lib/jobs/state-machine.ts; only its transitions write this column.
     t.enu("state", [
       "awaiting_payment",
@@ -22,7 +40,9 @@ export async function up(knex: Knex): Promise<void> {
       "partially_refunded",
       "refunded",
       "cancelled",
-    ]).notNullable().defaultTo("awaiting_payment");
+    ])
+      .notNullable()
+      .defaultTo("awaiting_payment");
     t.integer("amount_minor").unsigned().notNullable();
     t.integer("fee_minor").unsigned().notNullable();
     t.specificType("currency", "CHAR(3)").notNullable().defaultTo("GBP");
@@ -46,7 +66,12 @@ export async function up(knex: Knex): Promise<void> {
 
   await knex.schema.createTable("reports", (t) => {
     t.bigIncrements("id").primary();
-    t.bigInteger("job_id").unsigned().notNullable().unique().references("jobs.id").onDelete("CASCADE");
+    t.bigInteger("job_id")
+      .unsigned()
+      .notNullable()
+      .unique()
+      .references("jobs.id")
+      .onDelete("CASCADE");
     t.string("catalogue_version", 20).notNullable();
     t.enu("status", ["draft", "delivered"]).notNullable().defaultTo("draft");
     t.enu("outcome", ["ready_to_commission", "fix_before_filling", "do_not_proceed"]).nullable();
@@ -64,7 +89,13 @@ export async function up(knex: Knex): Promise<void> {
     t.bigIncrements("id").primary();
     t.bigInteger("report_id").unsigned().notNullable().references("reports.id").onDelete("CASCADE");
     t.string("item_key", 64).notNullable();
-    t.enu("verdict", ["sound", "concern", "unsafe", "not_applicable", "could_not_verify"]).nullable();
+    t.enu("verdict", [
+      "sound",
+      "concern",
+      "unsafe",
+      "not_applicable",
+      "could_not_verify",
+    ]).nullable();
     t.text("note_md").nullable();
     // Pins: [{ attachmentId, x, y, label }] with x, y as fractions of the image.
     t.json("pins").notNullable();
@@ -75,7 +106,12 @@ export async function up(knex: Knex): Promise<void> {
 
   await knex.schema.createTable("disputes", (t) => {
     t.bigIncrements("id").primary();
-    t.bigInteger("job_id").unsigned().notNullable().unique().references("jobs.id").onDelete("CASCADE");
+    t.bigInteger("job_id")
+      .unsigned()
+      .notNullable()
+      .unique()
+      .references("jobs.id")
+      .onDelete("CASCADE");
     t.bigInteger("opened_by").unsigned().notNullable().references("users.id");
     t.text("reason").notNullable();
     t.enu("status", ["open", "settled"]).notNullable().defaultTo("open");

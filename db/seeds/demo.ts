@@ -21,10 +21,34 @@ export const DEMO_USERS = {
     { email: "tobin@demo.loopwright.test", name: "Tobin Reyes (demo)", town: "Brindle Cross" },
   ],
   reviewers: [
-    { email: "sol@demo.loopwright.test", name: "Sol Brannagh (demo)", trading: "Brannagh Solar & Heating", region: "south-west", state: "verified" },
-    { email: "ines@demo.loopwright.test", name: "Ines Marwood (demo)", trading: "Marwood Plumbing", region: "wales", state: "verified" },
-    { email: "dev@demo.loopwright.test", name: "Dev Halloran (demo)", trading: "Halloran Heat", region: "south-east", state: "pending" },
-    { email: "kit@demo.loopwright.test", name: "Kit Ambrose (demo)", trading: "Ambrose Renewables", region: "yorkshire", state: "expired" },
+    {
+      email: "sol@demo.loopwright.test",
+      name: "Sol Brannagh (demo)",
+      trading: "Brannagh Solar & Heating",
+      region: "south-west",
+      state: "verified",
+    },
+    {
+      email: "ines@demo.loopwright.test",
+      name: "Ines Marwood (demo)",
+      trading: "Marwood Plumbing",
+      region: "wales",
+      state: "verified",
+    },
+    {
+      email: "dev@demo.loopwright.test",
+      name: "Dev Halloran (demo)",
+      trading: "Halloran Heat",
+      region: "south-east",
+      state: "pending",
+    },
+    {
+      email: "kit@demo.loopwright.test",
+      name: "Kit Ambrose (demo)",
+      trading: "Ambrose Renewables",
+      region: "yorkshire",
+      state: "expired",
+    },
   ],
 } as const;
 
@@ -52,7 +76,11 @@ const JOB_STATES = [
 function variant(i: number, region: string): SystemInput {
   const evacuated = i % 3 === 1;
   const s = structuredClone(demoSystem);
-  s.site = { ...s.site, region: region as SystemInput["site"]["region"], designMinTempC: -8 - (i % 4) * 3 };
+  s.site = {
+    ...s.site,
+    region: region as SystemInput["site"]["region"],
+    designMinTempC: -8 - (i % 4) * 3,
+  };
   s.collectors = {
     ...s.collectors,
     type: evacuated ? "evacuated_tube" : "flat_plate",
@@ -97,7 +125,8 @@ export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummar
 
     const adminId = await insertUser(DEMO_USERS.admin.email, DEMO_USERS.admin.name, "admin");
     const homeownerIds: number[] = [];
-    for (const h of DEMO_USERS.homeowners) homeownerIds.push(await insertUser(h.email, h.name, "homeowner"));
+    for (const h of DEMO_USERS.homeowners)
+      homeownerIds.push(await insertUser(h.email, h.name, "homeowner"));
 
     const reviewerIds: number[] = [];
     for (const r of DEMO_USERS.reviewers) {
@@ -117,7 +146,14 @@ export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummar
         payouts_enabled: r.state === "verified",
       });
       for (const kind of CREDENTIAL_KINDS) {
-        const status = r.state === "verified" ? "verified" : r.state === "expired" && kind === "public_liability_insurance" ? "expired" : r.state === "expired" ? "verified" : "pending";
+        const status =
+          r.state === "verified"
+            ? "verified"
+            : r.state === "expired" && kind === "public_liability_insurance"
+              ? "expired"
+              : r.state === "expired"
+                ? "verified"
+                : "pending";
         const expires = status === "expired" ? addDays(now, -10) : addDays(now, 300);
         await trx("credentials").insert({
           reviewer_id: id,
@@ -160,14 +196,16 @@ export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummar
       const p = projectIds[i]!;
       const kind = i % 3 === 0 ? "site_visit" : "remote_check";
       const jobState = JOB_STATES[i];
-      const status = jobState === undefined ? "open" : jobState === "cancelled" ? "cancelled" : "awarded";
+      const status =
+        jobState === undefined ? "open" : jobState === "cancelled" ? "cancelled" : "awarded";
       const created = addDays(now, -20 + i);
       const [requestId] = await trx("requests").insert({
         project_id: p.id,
         homeowner_id: p.owner,
         kind,
         status,
-        questions: "Is the vessel big enough for steam, and is the pre-charge right for the static height? (demo)",
+        questions:
+          "Is the vessel big enough for steam, and is the pre-charge right for the static height? (demo)",
         budget_min_minor: 6000 + i * 500,
         budget_max_minor: 15000 + i * 1000,
         currency: "GBP",
@@ -175,7 +213,8 @@ export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummar
         collector_type: p.collectorType,
         window_start: kind === "site_visit" ? sqlDate(addDays(now, 7)) : null,
         window_end: kind === "site_visit" ? sqlDate(addDays(now, 28)) : null,
-        access_notes: kind === "site_visit" ? "Loft hatch on the landing; scaffold booked. (demo)" : null,
+        access_notes:
+          kind === "site_visit" ? "Loft hatch on the landing; scaffold booked. (demo)" : null,
         expires_at: sqlDateTime(addDays(created, 30)),
         created_at: sqlDateTime(created),
       });
@@ -188,7 +227,8 @@ export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummar
           price_minor: 8500 + k * 2000 + i * 100,
           currency: "GBP",
           turnaround_days: 3 + k * 2,
-          scope_md: "Full checklist review of the sketch, photos and loop check, with a written report. (demo)",
+          scope_md:
+            "Full checklist review of the sketch, photos and loop check, with a written report. (demo)",
           proposed_visit_date: kind === "site_visit" ? sqlDate(addDays(now, 10 + k)) : null,
           status: jobState ? (k === 0 ? "accepted" : "declined") : "live",
         });
@@ -198,7 +238,13 @@ export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummar
         const amount = 8500 + i * 100;
         const fee = Math.round(amount * 0.12);
         const funded = jobState !== "awaiting_payment";
-        const delivered = ["delivered", "disputed", "released", "partially_refunded", "refunded"].includes(jobState);
+        const delivered = [
+          "delivered",
+          "disputed",
+          "released",
+          "partially_refunded",
+          "refunded",
+        ].includes(jobState);
         const [jobId] = await trx("jobs").insert({
           request_id: requestId,
           quote_id: quoteIds[0],
@@ -213,21 +259,50 @@ export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummar
           funded_at: funded ? sqlDateTime(addDays(now, -5)) : null,
           delivered_at: delivered ? sqlDateTime(addDays(now, -2)) : null,
           release_due_at: jobState === "delivered" ? sqlDateTime(addDays(now, 5)) : null,
-          closed_at: ["released", "partially_refunded", "refunded", "cancelled"].includes(jobState) ? sqlDateTime(now) : null,
+          closed_at: ["released", "partially_refunded", "refunded", "cancelled"].includes(jobState)
+            ? sqlDateTime(now)
+            : null,
         });
         jobs += 1;
         if (funded) {
-          await trx("ledger_entries").insert({ job_id: jobId, kind: "charge", amount_minor: amount, currency: "GBP", provider_ref: `pi_demo_${requestId}`, idempotency_key: `job-${jobId}-charge` });
+          await trx("ledger_entries").insert({
+            job_id: jobId,
+            kind: "charge",
+            amount_minor: amount,
+            currency: "GBP",
+            provider_ref: `pi_demo_${requestId}`,
+            idempotency_key: `job-${jobId}-charge`,
+          });
         }
         if (jobState === "released") {
           await trx("ledger_entries").insert([
-            { job_id: jobId, kind: "fee", amount_minor: fee, currency: "GBP", idempotency_key: `job-${jobId}-fee` },
-            { job_id: jobId, kind: "transfer", amount_minor: amount - fee, currency: "GBP", provider_ref: `tr_demo_${jobId}`, idempotency_key: `job-${jobId}-release` },
+            {
+              job_id: jobId,
+              kind: "fee",
+              amount_minor: fee,
+              currency: "GBP",
+              idempotency_key: `job-${jobId}-fee`,
+            },
+            {
+              job_id: jobId,
+              kind: "transfer",
+              amount_minor: amount - fee,
+              currency: "GBP",
+              provider_ref: `tr_demo_${jobId}`,
+              idempotency_key: `job-${jobId}-release`,
+            },
           ]);
         }
         if (jobState === "refunded" || jobState === "partially_refunded") {
           const refund = jobState === "refunded" ? amount : Math.round(amount / 2);
-          await trx("ledger_entries").insert({ job_id: jobId, kind: "refund", amount_minor: -refund, currency: "GBP", provider_ref: `re_demo_${jobId}`, idempotency_key: `job-${jobId}-refund` });
+          await trx("ledger_entries").insert({
+            job_id: jobId,
+            kind: "refund",
+            amount_minor: -refund,
+            currency: "GBP",
+            provider_ref: `re_demo_${jobId}`,
+            idempotency_key: `job-${jobId}-refund`,
+          });
         }
         if (["in_review", ...(delivered ? [jobState] : [])].includes(jobState)) {
           await trx("reports").insert({
@@ -235,8 +310,12 @@ export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummar
             catalogue_version: CATALOGUE_VERSION,
             status: delivered ? "delivered" : "draft",
             outcome: delivered ? "fix_before_filling" : null,
-            summary_md: delivered ? "The loop is sound apart from the vessel: fit the larger size before filling. (demo)" : null,
-            required_changes: JSON.stringify(delivered ? ["Fit an 18 L solar expansion vessel on a cooling leg."] : []),
+            summary_md: delivered
+              ? "The loop is sound apart from the vessel: fit the larger size before filling. (demo)"
+              : null,
+            required_changes: JSON.stringify(
+              delivered ? ["Fit an 18 L solar expansion vessel on a cooling leg."] : [],
+            ),
             delivered_at: delivered ? sqlDateTime(addDays(now, -2)) : null,
           });
         }
@@ -246,14 +325,30 @@ export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummar
             opened_by: p.owner,
             reason: "The report did not answer my question about the relief discharge. (demo)",
             status: jobState === "disputed" ? "open" : "settled",
-            resolution: jobState === "refunded" ? "full_refund" : jobState === "partially_refunded" ? "partial_refund" : null,
-            refund_minor: jobState === "refunded" ? amount : jobState === "partially_refunded" ? Math.round(amount / 2) : null,
+            resolution:
+              jobState === "refunded"
+                ? "full_refund"
+                : jobState === "partially_refunded"
+                  ? "partial_refund"
+                  : null,
+            refund_minor:
+              jobState === "refunded"
+                ? amount
+                : jobState === "partially_refunded"
+                  ? Math.round(amount / 2)
+                  : null,
             settled_by: jobState === "disputed" ? null : adminId,
             settled_at: jobState === "disputed" ? null : sqlDateTime(now),
           });
         }
         if (jobState === "released") {
-          await trx("ratings").insert({ job_id: jobId, rater_id: p.owner, ratee_id: verifiedReviewers[0], stars: 5, comment: "Clear and quick. (demo)" });
+          await trx("ratings").insert({
+            job_id: jobId,
+            rater_id: p.owner,
+            ratee_id: verifiedReviewers[0],
+            stars: 5,
+            comment: "Clear and quick. (demo)",
+          });
         }
         await trx("audit_log").insert({
           actor_id: p.owner,
@@ -264,6 +359,12 @@ export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummar
         });
       }
     }
-    return { seeded: true, users: 1 + homeownerIds.length + reviewerIds.length, projects: projectIds.length, requests, jobs };
+    return {
+      seeded: true,
+      users: 1 + homeownerIds.length + reviewerIds.length,
+      projects: projectIds.length,
+      requests,
+      jobs,
+    };
   });
 }

@@ -13,17 +13,23 @@ export interface EfficiencyCoefficients {
 }
 
 /** Defaults when the collector's test report is not to hand (common practice, not published values). */
-export const DEFAULT_COEFFICIENTS: Record<"flat_plate" | "evacuated_tube", EfficiencyCoefficients> = {
-  flat_plate: { eta0: 0.78, a1: 3.5, a2: 0.015 },
-  evacuated_tube: { eta0: 0.65, a1: 1.2, a2: 0.008 },
-};
+export const DEFAULT_COEFFICIENTS: Record<"flat_plate" | "evacuated_tube", EfficiencyCoefficients> =
+  {
+    flat_plate: { eta0: 0.78, a1: 3.5, a2: 0.015 },
+    evacuated_tube: { eta0: 0.65, a1: 1.2, a2: 0.008 },
+  };
 
 /** Reference irradiance, W/m²: full sun, about 1 kW per m² (common practice). */
 export const REFERENCE_IRRADIANCE = 1000;
 export const STAGNATION_AMBIENT_C = 30;
 
 /** Efficiency at mean fluid temperature tmC, ambient taC and irradiance g (W/m²); never below zero. */
-export function collectorEfficiency(c: EfficiencyCoefficients, tmC: number, taC: number, g: number): number {
+export function collectorEfficiency(
+  c: EfficiencyCoefficients,
+  tmC: number,
+  taC: number,
+  g: number,
+): number {
   if (g <= 0) return 0;
   const dT = tmC - taC;
   return Math.max(0, c.eta0 - (c.a1 * dT) / g - (c.a2 * dT * dT) / g);

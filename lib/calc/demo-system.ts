@@ -17,8 +17,24 @@ export const demoSystem: SystemInput = {
     highPointVent: "manual",
   },
   pipeRuns: [
-    { label: "Roof to loft", material: "copper", copperSize: "15x0.7", lengthM: 4, insulated: true, inSteamReach: true, fittingsCount: 4 },
-    { label: "Loft to cylinder", material: "copper", copperSize: "15x0.7", lengthM: 22, insulated: true, inSteamReach: false, fittingsCount: 12 },
+    {
+      label: "Roof to loft",
+      material: "copper",
+      copperSize: "15x0.7",
+      lengthM: 4,
+      insulated: true,
+      inSteamReach: true,
+      fittingsCount: 4,
+    },
+    {
+      label: "Loft to cylinder",
+      material: "copper",
+      copperSize: "15x0.7",
+      lengthM: 22,
+      insulated: true,
+      inSteamReach: false,
+      fittingsCount: 12,
+    },
   ],
   pumpStation: {
     staticHeightM: 8,

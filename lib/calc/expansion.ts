@@ -98,7 +98,12 @@ export function nextStandardVesselL(requiredL: number): number | null {
  * `nominalL` pre-charged to `prechargeBar` and filled at `fillBar` (Boyle's law on the gas side).
  * Returns Infinity when the gas side would be used up: the relief valve opens before that.
  */
-export function vesselPressureBar(nominalL: number, prechargeBar: number, fillBar: number, displacedL: number): number {
+export function vesselPressureBar(
+  nominalL: number,
+  prechargeBar: number,
+  fillBar: number,
+  displacedL: number,
+): number {
   // Filled below its pre-charge the vessel holds no fluid yet: the gas fills all of it.
   const gasAtFill = Math.min(nominalL, (nominalL * (prechargeBar + 1)) / (fillBar + 1));
   const gas = gasAtFill - displacedL;

@@ -12,7 +12,11 @@ export function velocity(flowM3s: number, innerDiameterM: number): number {
   return flowM3s / ((Math.PI * innerDiameterM * innerDiameterM) / 4);
 }
 
-export function reynolds(velocityMs: number, innerDiameterM: number, kinematicViscosityM2s: number): number {
+export function reynolds(
+  velocityMs: number,
+  innerDiameterM: number,
+  kinematicViscosityM2s: number,
+): number {
   return (velocityMs * innerDiameterM) / kinematicViscosityM2s;
 }
 
@@ -70,7 +74,13 @@ export function pipePressureDrop(p: PipeFlowInput): PipeFlowResult {
   const re = reynolds(v, p.innerDiameterM, nu);
   const f = frictionFactor(re, p.roughnessM / p.innerDiameterM);
   const dp = (f * (p.lengthM / p.innerDiameterM) * p.densityKgM3 * v * v) / 2;
-  return { velocityMs: v, reynolds: re, laminar: re < RE_LAMINAR, frictionFactor: f, pressureDropPa: dp };
+  return {
+    velocityMs: v,
+    reynolds: re,
+    laminar: re < RE_LAMINAR,
+    frictionFactor: f,
+    pressureDropPa: dp,
+  };
 }
 
 /** Equivalent length of one fitting (elbow, tee run, valve) in tube diameters: about 30 D (common practice). */

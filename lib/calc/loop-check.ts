@@ -49,7 +49,13 @@ import { cToK, lphToM3s, round } from "./units";
 type Parsed<S extends z.ZodType> = z.output<S>;
 
 /** Design flow per m² of aperture, L/(m²·h): low-flow 12–24 (Kalogirou 2009); high-flow 30–50 (common practice). */
-export const SPECIFIC_FLOW = { lowMin: 12, lowMax: 24, highMin: 30, highMax: 50, design: 30 } as const;
+export const SPECIFIC_FLOW = {
+  lowMin: 12,
+  lowMax: 24,
+  highMin: 30,
+  highMax: 50,
+  design: 30,
+} as const;
 /** Velocity band for copper solar loops, m/s (common practice). */
 export const VELOCITY_BAND = { min: 0.3, max: 1.0, hardMax: 1.5 } as const;
 /** Temperature at the vessel when it hangs on an uninsulated cooling leg, °C (common practice). */
@@ -78,7 +84,12 @@ export interface LoopCheckResult {
   counts: Record<Level, number>;
   /** Figures the charts draw; absent where the inputs are incomplete. */
   charts: {
-    pressure?: { points: PressurePoint[]; reliefBar: number; stagnation: PressurePoint; fillBar: number };
+    pressure?: {
+      points: PressurePoint[];
+      reliefBar: number;
+      stagnation: PressurePoint;
+      fillBar: number;
+    };
     freeze?: { points: FreezePoint[]; designMinC: number; percent: number };
   };
 }
@@ -109,7 +120,11 @@ const SECTION_NAMES: Record<string, string> = {
 
 function parseSections(draft: SystemDraft, findings: Finding[]): Sections {
   const out: Sections = { design: { fillTempC: 15, maxLiquidTempC: 120 } };
-  const take = <S extends z.ZodType>(name: keyof typeof SECTION_NAMES, schema: S, value: unknown) => {
+  const take = <S extends z.ZodType>(
+    name: keyof typeof SECTION_NAMES,
+    schema: S,
+    value: unknown,
+  ) => {
     if (value === undefined || value === null) {
       findings.push(missing(name, "not filled in yet"));
       return undefined;
@@ -128,7 +143,10 @@ function parseSections(draft: SystemDraft, findings: Finding[]): Sections {
     draft.pipeRuns.forEach((run, i) => {
       const r = pipeRunSchema.safeParse(run);
       if (r.success) runs.push(r.data);
-      else findings.push(missing("pipeRuns", `run ${i + 1}: ${r.error.issues[0]?.message ?? "invalid"}`));
+      else
+        findings.push(
+          missing("pipeRuns", `run ${i + 1}: ${r.error.issues[0]?.message ?? "invalid"}`),
+        );
     });
     if (runs.length === draft.pipeRuns.length) out.pipeRuns = runs;
   } else {
@@ -154,7 +172,8 @@ function missing(section: string, detail: string): Finding {
     title: `${SECTION_NAMES[section] ?? section}: ${detail}`,
     values: [],
     source: "Loopwright input checks",
-    action: "Complete this part of the description; the checks that need it are skipped until then.",
+    action:
+      "Complete this part of the description; the checks that need it are skipped until then.",
   };
 }
 
@@ -182,7 +201,10 @@ function runGeometry(run: Parsed<typeof pipeRunSchema>): { boreMm: number; lPerM
   return null;
 }
 
-function coefficientsOf(c: Parsed<typeof collectorArraySchema>): { coeffs: EfficiencyCoefficients; defaulted: boolean } {
+function coefficientsOf(c: Parsed<typeof collectorArraySchema>): {
+  coeffs: EfficiencyCoefficients;
+  defaulted: boolean;
+} {
   const d = DEFAULT_COEFFICIENTS[c.type];
   const defaulted = c.eta0 === undefined || c.a1 === undefined || c.a2 === undefined;
   return { coeffs: { eta0: c.eta0 ?? d.eta0, a1: c.a1 ?? d.a1, a2: c.a2 ?? d.a2 }, defaulted };
@@ -243,14 +265,16 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
       hotZone.push({
         level: "fix",
         title: "Soft-soldered joints at the collector",
-        action: "Use compression, press (high-temperature seals) or brazed joints at the collector and near it.",
+        action:
+          "Use compression, press (high-temperature seals) or brazed joints at the collector and near it.",
       });
     }
     if (s.safety?.insulationMaxTempC !== undefined && s.safety.insulationMaxTempC < stagnationC) {
       hotZone.push({
         level: "fix",
         title: `Pipe insulation rated ${s.safety.insulationMaxTempC} °C, below stagnation`,
-        action: "Use insulation rated above the stagnation temperature (and UV-resistant outdoors) on the collector pipes.",
+        action:
+          "Use insulation rated above the stagnation temperature (and UV-resistant outdoors) on the collector pipes.",
       });
     }
     const vent = s.collectors.highPointVent;
@@ -258,7 +282,8 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
       hotZone.push({
         level: "fix",
         title: "Automatic vent at the high point with no isolation",
-        action: "Fit a manual vent, or an automatic one with an isolating valve closed after commissioning, so steam cannot escape.",
+        action:
+          "Fit a manual vent, or an automatic one with an isolating valve closed after commissioning, so steam cannot escape.",
       });
     } else if (vent === "automatic_isolatable") {
       const rating = s.collectors.ventMaxTempC;
@@ -266,7 +291,8 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
         hotZone.push({
           level: "note",
           title: `Automatic vent rated ${rating ?? "unknown"} °C near the collector`,
-          action: "Keep its isolating valve closed after commissioning; a vent rated near 150 °C is marginal at the high point.",
+          action:
+            "Keep its isolating valve closed after commissioning; a vent rated near 150 °C is marginal at the high point.",
         });
       }
     }
@@ -277,10 +303,18 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
         `Stagnation about ${round(stagnationC, 0)} °C at the collector` +
         (hotZone.length ? `; ${hotZone.map((h) => h.title.toLowerCase()).join("; ")}` : ""),
       values: [
-        { label: "Stagnation temperature (G = 1000 W/m², T_a = 30 °C)", value: round(stagnationC, 0), unit: "°C" },
-        { label: "Joints at the collector", value: s.safety?.jointsAtCollector.replace("_", " ") ?? "not given" },
+        {
+          label: "Stagnation temperature (G = 1000 W/m², T_a = 30 °C)",
+          value: round(stagnationC, 0),
+          unit: "°C",
+        },
+        {
+          label: "Joints at the collector",
+          value: s.safety?.jointsAtCollector.replace("_", " ") ?? "not given",
+        },
       ],
-      source: "EN ISO 9806 efficiency curve solved for η = 0 (standard stagnation conditions, from memory)",
+      source:
+        "EN ISO 9806 efficiency curve solved for η = 0 (standard stagnation conditions, from memory)",
       action: hotZone.length
         ? hotZone.map((h) => h.action).join(" ")
         : "Everything within a metre or two of the collector must take this temperature. Fill and work with the collector covered or early in the morning.",
@@ -294,13 +328,18 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
   let steamVolumeL: number | undefined;
   const runGeoms = s.pipeRuns?.map((r) => ({ run: r, geom: runGeometry(r) }));
   if (s.collectors && runGeoms && s.cylinder && s.pumpStation) {
-    const pipesL = runGeoms.reduce((sum, { run, geom }) => sum + (geom ? geom.lPerM * run.lengthM : 0), 0);
+    const pipesL = runGeoms.reduce(
+      (sum, { run, geom }) => sum + (geom ? geom.lPerM * run.lengthM : 0),
+      0,
+    );
     const steamPipesL = runGeoms.reduce(
       (sum, { run, geom }) => sum + (geom && run.inSteamReach ? geom.lPerM * run.lengthM : 0),
       0,
     );
     const collectorsL = s.collectors.count * s.collectors.fluidContentLEach;
-    const coilL = s.cylinder.coils.filter((c) => c.heatSource === "solar").reduce((sum, c) => sum + c.contentL, 0);
+    const coilL = s.cylinder.coils
+      .filter((c) => c.heatSource === "solar")
+      .reduce((sum, c) => sum + c.contentL, 0);
     loopVolumeL = pipesL + collectorsL + coilL + s.pumpStation.stationContentL;
     steamVolumeL = collectorsL + steamPipesL;
     const sealL = waterSealL(loopVolumeL);
@@ -317,22 +356,42 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
         { label: "Vessel water seal", value: round(sealL, 2), unit: "L" },
         { label: "Total", value: round(totalL, 2), unit: "L" },
       ],
-      source: "EN 1057 tube bores; makers' content figures as entered; water seal per VDI 6002-1 (from memory)",
+      source:
+        "EN 1057 tube bores; makers' content figures as entered; water seal per VDI 6002-1 (from memory)",
       action: `Order the loop volume plus about ${FLUID_MARGIN * 100} % for flushing and topping up (common practice).`,
     });
   } else {
-    findings.push(skipped("fluid-volume", "Fluid volume", ["collectors", "pipeRuns", "cylinder", "pumpStation"]));
+    findings.push(
+      skipped("fluid-volume", "Fluid volume", [
+        "collectors",
+        "pipeRuns",
+        "cylinder",
+        "pumpStation",
+      ]),
+    );
   }
 
   // --- Pressures and the vessel ----------------------------------------------------------
-  if (s.pumpStation && s.expansionVessel && s.fluid && loopVolumeL !== undefined && steamVolumeL !== undefined) {
+  if (
+    s.pumpStation &&
+    s.expansionVessel &&
+    s.fluid &&
+    loopVolumeL !== undefined &&
+    steamVolumeL !== undefined
+  ) {
     const ps = s.pumpStation;
     const ev = s.expansionVessel;
     const p0 = recommendedPrechargeBar(ps.staticHeightM);
     const pa = fillPressureBar(p0);
     const pe = finalPressureBar(ps.reliefValveBar);
     const glycol = s.fluid.glycolType === "none" ? 0 : s.fluid.glycolPercentMass;
-    const exp = thermalExpansion(loopVolumeL, glycol, fillTempC, maxLiquidTempC, (pe + 1.01325) / 10);
+    const exp = thermalExpansion(
+      loopVolumeL,
+      glycol,
+      fillTempC,
+      maxLiquidTempC,
+      (pe + 1.01325) / 10,
+    );
     const sealL = waterSealL(loopVolumeL);
     const required = requiredVesselVolumeL({
       expansionL: exp.expansionL,
@@ -352,7 +411,8 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
           { label: "Final pressure from relief setting", value: round(pe, 2), unit: "bar" },
         ],
         source: "EN 12828 Annex D; VDI 6002-1 (from memory)",
-        action: "A higher relief setting (with every component rated for it) or a lower static height is needed; ask a reviewer.",
+        action:
+          "A higher relief setting (with every component rated for it) or a lower static height is needed; ask a reviewer.",
       });
     } else {
       const standard = nextStandardVesselL(required);
@@ -364,7 +424,11 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
           ? `Vessel of ${ev.nominalVolumeL} L covers the ${round(required, 1)} L needed, steam included`
           : `Vessel of ${ev.nominalVolumeL} L is too small: ${round(required, 1)} L needed, steam included`,
         values: [
-          { label: "Expansion to " + maxLiquidTempC + " °C", value: round(exp.expansionL, 2), unit: "L" },
+          {
+            label: "Expansion to " + maxLiquidTempC + " °C",
+            value: round(exp.expansionL, 2),
+            unit: "L",
+          },
           { label: "Expansion coefficient", value: round(exp.coefficient * 100, 2), unit: "%" },
           { label: "Water seal", value: round(sealL, 2), unit: "L" },
           { label: "Steam volume at stagnation", value: round(steamVolumeL, 2), unit: "L" },
@@ -394,8 +458,10 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
         { label: "Recommended pre-charge", value: round(p0, 2), unit: "bar" },
         { label: "Set pre-charge", value: ev.prechargeBar, unit: "bar" },
       ],
-      source: "VDI 6002-1: 0.1 bar per metre of static height + 0.4 bar, at least 1.2 bar (from memory)",
-      action: "Set the pre-charge with the vessel empty of fluid, before filling, with a tyre gauge at the gas valve.",
+      source:
+        "VDI 6002-1: 0.1 bar per metre of static height + 0.4 bar, at least 1.2 bar (from memory)",
+      action:
+        "Set the pre-charge with the vessel empty of fluid, before filling, with a tyre gauge at the gas valve.",
     });
 
     findings.push({
@@ -407,7 +473,8 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
         { label: "Fill temperature", value: fillTempC, unit: "°C" },
       ],
       source: "EN 12828: fill pressure = pre-charge + 0.3 bar (from memory)",
-      action: "Fill with the collector covered, through the fill point with a filling pump, and read the gauge cold.",
+      action:
+        "Fill with the collector covered, through the fill point with a filling pump, and read the gauge cold.",
     });
 
     // Loop pressure from cold to hot in the chosen vessel, and at stagnation with steam.
@@ -418,18 +485,33 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
       const t = fillTempC + ((maxLiquidTempC - fillTempC) * k) / steps;
       const e = thermalExpansion(loopVolumeL, glycol, fillTempC, t, (pe + 1.01325) / 10).expansionL;
       const p = vesselPressureBar(ev.nominalVolumeL, ev.prechargeBar, userFill, e);
-      points.push({ tempC: round(t, 1), pressureBar: Number.isFinite(p) ? round(Math.min(p, ps.reliefValveBar * 1.5), 2) : null });
+      points.push({
+        tempC: round(t, 1),
+        pressureBar: Number.isFinite(p) ? round(Math.min(p, ps.reliefValveBar * 1.5), 2) : null,
+      });
     }
-    const hotP = vesselPressureBar(ev.nominalVolumeL, ev.prechargeBar, userFill, exp.expansionL + steamVolumeL);
+    const hotP = vesselPressureBar(
+      ev.nominalVolumeL,
+      ev.prechargeBar,
+      userFill,
+      exp.expansionL + steamVolumeL,
+    );
     const stagnationPoint: PressurePoint = {
       tempC: round(stagnationC ?? maxLiquidTempC, 0),
       pressureBar: Number.isFinite(hotP) ? round(Math.min(hotP, ps.reliefValveBar * 1.5), 2) : null,
     };
-    charts.pressure = { points, reliefBar: ps.reliefValveBar, stagnation: stagnationPoint, fillBar: round(userFill, 2) };
+    charts.pressure = {
+      points,
+      reliefBar: ps.reliefValveBar,
+      stagnation: stagnationPoint,
+      fillBar: round(userFill, 2),
+    };
 
     const components = [
       { name: "expansion vessel", bar: ev.maxPressureBar },
-      ...(ps.lowestComponentMaxBar !== undefined ? [{ name: "lowest-rated component", bar: ps.lowestComponentMaxBar }] : []),
+      ...(ps.lowestComponentMaxBar !== undefined
+        ? [{ name: "lowest-rated component", bar: ps.lowestComponentMaxBar }]
+        : []),
     ];
     const under = components.filter((c) => c.bar < ps.reliefValveBar);
     const opensAtStagnation = !Number.isFinite(hotP) || hotP >= ps.reliefValveBar;
@@ -444,7 +526,10 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
       values: [
         { label: "Relief setting", value: ps.reliefValveBar, unit: "bar" },
         { label: "Final working pressure", value: round(pe, 2), unit: "bar" },
-        { label: "Pressure at stagnation (chosen vessel)", value: Number.isFinite(hotP) ? round(hotP, 2) : "vessel full" },
+        {
+          label: "Pressure at stagnation (chosen vessel)",
+          value: Number.isFinite(hotP) ? round(hotP, 2) : "vessel full",
+        },
         ...components.map((c) => ({ label: `Max pressure, ${c.name}`, value: c.bar, unit: "bar" })),
       ],
       source: "EN 12977-1; EN 12828 (relief principle); Boyle's law on the vessel's gas side",
@@ -457,7 +542,8 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
 
     const seenAtVessel = ev.onCoolingLeg ? COOLING_LEG_TEMP_C : maxLiquidTempC;
     const vesselProblems: string[] = [];
-    if (ev.diaphragmMaxTempC < seenAtVessel) vesselProblems.push("diaphragm rated below the temperature it will see");
+    if (ev.diaphragmMaxTempC < seenAtVessel)
+      vesselProblems.push("diaphragm rated below the temperature it will see");
     if (!ev.onCoolingLeg) vesselProblems.push("not on a cooling leg");
     findings.push({
       key: "vessel-rating",
@@ -470,7 +556,8 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
         { label: "Temperature it may see", value: seenAtVessel, unit: "°C" },
         { label: "On a cooling leg", value: ev.onCoolingLeg ? "yes" : "no" },
       ],
-      source: "EN 13831 scope (ordinary heating vessels ≈ 70 °C at the diaphragm, from memory); common practice",
+      source:
+        "EN 13831 scope (ordinary heating vessels ≈ 70 °C at the diaphragm, from memory); common practice",
       action: vesselProblems.length
         ? "Use a vessel made for solar loops and hang it below its connection on an uninsulated leg, or add an intermediate cooling vessel."
         : "No action.",
@@ -484,7 +571,8 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
   if (s.fluid && s.site) {
     const min = s.site.designMinTempC;
     const points: FreezePoint[] = [];
-    for (let p = 0; p <= 60; p += 5) points.push({ percent: p, freezeC: round(glycolFreezingPoint(p), 1) });
+    for (let p = 0; p <= 60; p += 5)
+      points.push({ percent: p, freezeC: round(glycolFreezingPoint(p), 1) });
     charts.freeze = { points, designMinC: min, percent: s.fluid.glycolPercentMass };
     if (s.fluid.glycolType === "none") {
       findings.push({
@@ -493,7 +581,8 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
         title: min < 0 ? "Plain water in a loop that will see frost" : "Plain water in the loop",
         values: [{ label: "Design minimum", value: min, unit: "°C" }],
         source: "Common practice",
-        action: "Use an inhibited propylene glycol solar fluid mixed to protect below the site's minimum.",
+        action:
+          "Use an inhibited propylene glycol solar fluid mixed to protect below the site's minimum.",
       });
     } else if (s.fluid.glycolType === "ethylene") {
       findings.push({
@@ -502,7 +591,8 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
         title: "Ethylene glycol in a loop beside drinking water",
         values: [{ label: "Glycol", value: s.fluid.glycolPercentMass, unit: "% by mass" }],
         source: "Common practice",
-        action: "Use inhibited propylene glycol made for solar loops: ethylene glycol is toxic and automotive mixes are not rated for stagnation.",
+        action:
+          "Use inhibited propylene glycol made for solar loops: ethylene glycol is toxic and automotive mixes are not rated for stagnation.",
       });
     } else {
       const fp = glycolFreezingPoint(s.fluid.glycolPercentMass);
@@ -521,7 +611,8 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
           { label: "Design minimum", value: min, unit: "°C" },
           { label: "Margin", value: round(margin, 1), unit: "K" },
         ],
-        source: "Melinder (2010) propylene glycol polynomials; freezing point is first crystals, not burst protection",
+        source:
+          "Melinder (2010) propylene glycol polynomials; freezing point is first crystals, not burst protection",
         action:
           level === "ok"
             ? s.fluid.glycolPercentMass > 50
@@ -537,7 +628,8 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
         title: "The fluid is not rated for solar stagnation",
         values: [],
         source: "Common practice",
-        action: "Use a solar heat-transfer fluid; ordinary antifreeze breaks down and turns acidic at stagnation temperatures.",
+        action:
+          "Use a solar heat-transfer fluid; ordinary antifreeze breaks down and turns acidic at stagnation temperatures.",
       });
     }
   } else {
@@ -563,13 +655,20 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
         { label: "Design flow (30 L/(m²·h))", value: round(designLph, 0), unit: "L/h" },
         { label: "Sensible range", value: `${round(minLph, 0)}–${round(maxLph, 0)}`, unit: "L/h" },
       ],
-      source: "Specific flow: low-flow 12–24 L/(m²·h) (Kalogirou 2009); high-flow 30–50 (common practice)",
+      source:
+        "Specific flow: low-flow 12–24 L/(m²·h) (Kalogirou 2009); high-flow 30–50 (common practice)",
       action: covers ? "No action." : "Fit a flow meter whose range includes the design flow.",
     });
 
     const glycol = s.fluid.glycolType === "none" ? 0 : s.fluid.glycolPercentMass;
-    const rho = glycol > 0 ? glycolDensity(glycol, HYDRAULIC_TEMP_C) : waterDensity(cToK(HYDRAULIC_TEMP_C), 0.3);
-    const mu = glycol > 0 ? glycolViscosity(glycol, HYDRAULIC_TEMP_C) : waterViscosity(cToK(HYDRAULIC_TEMP_C));
+    const rho =
+      glycol > 0
+        ? glycolDensity(glycol, HYDRAULIC_TEMP_C)
+        : waterDensity(cToK(HYDRAULIC_TEMP_C), 0.3);
+    const mu =
+      glycol > 0
+        ? glycolViscosity(glycol, HYDRAULIC_TEMP_C)
+        : waterViscosity(cToK(HYDRAULIC_TEMP_C));
     const flow = lphToM3s(designLph);
     let totalPa = 0;
     const perRun: { label: string; result: PipeFlowResult }[] = [];
@@ -594,10 +693,13 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
     const slow = perRun.filter((r) => r.result.velocityMs < VELOCITY_BAND.min);
     const pumpShort = ps.pumpMaxHeadM !== undefined && headM > ps.pumpMaxHeadM;
     const pumpTight = ps.pumpMaxHeadM !== undefined && !pumpShort && headM > 0.8 * ps.pumpMaxHeadM;
-    const level: Level = fast.length || pumpShort ? "fix" : quick.length || slow.length || pumpTight ? "note" : "ok";
+    const level: Level =
+      fast.length || pumpShort ? "fix" : quick.length || slow.length || pumpTight ? "note" : "ok";
     const notes: string[] = [];
-    if (fast.length || quick.length) notes.push(`fast flow in ${quick.map((r) => r.label).join(", ")}`);
-    if (slow.length) notes.push(`slow flow in ${slow.map((r) => r.label).join(", ")} (air may not clear)`);
+    if (fast.length || quick.length)
+      notes.push(`fast flow in ${quick.map((r) => r.label).join(", ")}`);
+    if (slow.length)
+      notes.push(`slow flow in ${slow.map((r) => r.label).join(", ")} (air may not clear)`);
     if (pumpShort) notes.push("the pump cannot deliver the head needed");
     else if (pumpTight) notes.push("the pump has little head to spare");
     findings.push({
@@ -614,7 +716,9 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
         })),
         { label: "Pipe-run pressure drop", value: round(totalPa / 1000, 2), unit: "kPa" },
         { label: "Head needed (pipes and fittings only)", value: round(headM, 2), unit: "m" },
-        ...(ps.pumpMaxHeadM !== undefined ? [{ label: "Pump maximum head", value: ps.pumpMaxHeadM, unit: "m" }] : []),
+        ...(ps.pumpMaxHeadM !== undefined
+          ? [{ label: "Pump maximum head", value: ps.pumpMaxHeadM, unit: "m" }]
+          : []),
         {
           label: `Fluid at ${HYDRAULIC_TEMP_C} °C`,
           value: `${round(rho, 0)} kg/m³, ${round(mu * 1000, 2)} mPa·s`,
@@ -632,31 +736,57 @@ export function runLoopCheck(draft: SystemDraft | null | undefined): LoopCheckRe
               : "Check the flow can purge air at filling; consider a smaller tube on slow runs.",
     });
   } else {
-    findings.push(skipped("hydraulics", "Flow rate and pipe sizing", ["collectors", "pumpStation", "pipeRuns", "fluid"]));
+    findings.push(
+      skipped("hydraulics", "Flow rate and pipe sizing", [
+        "collectors",
+        "pumpStation",
+        "pipeRuns",
+        "fluid",
+      ]),
+    );
   }
 
   // --- Component temperature ratings ----------------------------------------------------
   if (s.pumpStation && s.safety) {
     const problems: { level: Level; text: string }[] = [];
     if (s.pumpStation.pumpMaxTempC < RETURN_LEG_TEMP_C) {
-      problems.push({ level: "fix", text: `circulator rated ${s.pumpStation.pumpMaxTempC} °C (return leg may see ${RETURN_LEG_TEMP_C} °C)` });
+      problems.push({
+        level: "fix",
+        text: `circulator rated ${s.pumpStation.pumpMaxTempC} °C (return leg may see ${RETURN_LEG_TEMP_C} °C)`,
+      });
     }
     if (!s.safety.airSeparator) {
       problems.push({ level: "note", text: "no air separator in the flow line" });
-    } else if (s.safety.airSeparatorMaxTempC !== undefined && s.safety.airSeparatorMaxTempC < maxLiquidTempC) {
-      problems.push({ level: "fix", text: `air separator rated ${s.safety.airSeparatorMaxTempC} °C (flow line may see ${maxLiquidTempC} °C)` });
+    } else if (
+      s.safety.airSeparatorMaxTempC !== undefined &&
+      s.safety.airSeparatorMaxTempC < maxLiquidTempC
+    ) {
+      problems.push({
+        level: "fix",
+        text: `air separator rated ${s.safety.airSeparatorMaxTempC} °C (flow line may see ${maxLiquidTempC} °C)`,
+      });
     }
-    if (!s.safety.checkValve) problems.push({ level: "fix", text: "no check valve against night-time reverse circulation" });
+    if (!s.safety.checkValve)
+      problems.push({
+        level: "fix",
+        text: "no check valve against night-time reverse circulation",
+      });
     findings.push({
       key: "component-ratings",
       level: worstLevel(problems),
-      title: problems.length ? `Components: ${problems.map((p) => p.text).join("; ")}` : "Pump, air separator and check valve are rated for the loop",
+      title: problems.length
+        ? `Components: ${problems.map((p) => p.text).join("; ")}`
+        : "Pump, air separator and check valve are rated for the loop",
       values: [
         { label: "Circulator rating", value: s.pumpStation.pumpMaxTempC, unit: "°C" },
-        { label: "Air separator rating", value: s.safety.airSeparatorMaxTempC ?? (s.safety.airSeparator ? "not given" : "none") },
+        {
+          label: "Air separator rating",
+          value: s.safety.airSeparatorMaxTempC ?? (s.safety.airSeparator ? "not given" : "none"),
+        },
         { label: "Highest liquid temperature", value: maxLiquidTempC, unit: "°C" },
       ],
-      source: "Common practice: return leg up to 110 °C, flow line up to the highest liquid temperature",
+      source:
+        "Common practice: return leg up to 110 °C, flow line up to the highest liquid temperature",
       action: problems.length
         ? "Use parts made for solar primary loops; put the circulator on the cooler return leg."
         : "No action.",
@@ -674,7 +804,11 @@ function sanitise(f: Finding): Finding {
   return {
     ...f,
     level: f.level === "ok" ? "note" : f.level,
-    values: f.values.map((v) => (typeof v.value === "number" && !Number.isFinite(v.value) ? { ...v, value: "could not compute" } : v)),
+    values: f.values.map((v) =>
+      typeof v.value === "number" && !Number.isFinite(v.value)
+        ? { ...v, value: "could not compute" }
+        : v,
+    ),
   };
 }
 
@@ -683,4 +817,3 @@ function summarise(findings: Finding[], charts: LoopCheckResult["charts"]): Loop
   for (const f of findings) counts[f.level] += 1;
   return { findings, worst: worstLevel(findings), counts, charts };
 }
-

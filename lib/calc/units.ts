@@ -18,4 +18,5 @@ export function round(value: number, digits = 2): number {
   return Object.is(r, -0) ? 0 : r;
 }
 
-export const isFiniteNumber = (v: unknown): v is number => typeof v === "number" && Number.isFinite(v);
+export const isFiniteNumber = (v: unknown): v is number =>
+  typeof v === "number" && Number.isFinite(v);

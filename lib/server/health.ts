@@ -1,4 +1,5 @@
 import "server-only";
+import type { Knex } from "knex";
 import { db } from "./db";
 
 export interface Health {
@@ -8,15 +9,20 @@ export interface Health {
 }
 
 /** Ask the database for one row, with a short timeout so a dead server answers quickly. */
-export async function getHealth(): Promise<Health> {
+export async function getHealth(knex: Knex = db()): Promise<Health> {
+  let timer: NodeJS.Timeout | undefined;
   try {
     await Promise.race([
-      db().raw("SELECT 1"),
-      new Promise((_, reject) => setTimeout(() => reject(new Error("database did not answer within 2 s")), 2000)),
+      knex.raw("SELECT 1"),
+      new Promise((_, reject) => {
+        timer = setTimeout(() => reject(new Error("database did not answer within 2 s")), 2000);
+      }),
     ]);
     return { status: "ok", database: "up" };
   } catch (err) {
     const message = err instanceof Error ? err.message : "unknown error";
     return { status: "degraded", database: "down", error: message.split("\n")[0] };
+  } finally {
+    clearTimeout(timer);
   }
 }

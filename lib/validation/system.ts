@@ -11,9 +11,13 @@ import { COPPER_TUBE_IDS } from "@/lib/calc/tubes";
  */
 
 const num = (min: number, max: number, unit: string) =>
-  z.number({ error: `Enter a number (${unit})` }).min(min, `At least ${min} ${unit}`).max(max, `At most ${max} ${unit}`);
+  z
+    .number({ error: `Enter a number (${unit})` })
+    .min(min, `At least ${min} ${unit}`)
+    .max(max, `At most ${max} ${unit}`);
 
-const int = (min: number, max: number, unit: string) => num(min, max, unit).int("Whole numbers only");
+const int = (min: number, max: number, unit: string) =>
+  num(min, max, unit).int("Whole numbers only");
 
 export const collectorTypes = ["flat_plate", "evacuated_tube"] as const;
 export const jointKinds = ["compression", "press", "brazed", "soft_soldered"] as const;

@@ -1,1 +1,60 @@
-export default async function setup() {}
+/**
+ * Starts the built app (next start) on a test port against the test database for the browser
+ * and HTTP tests, and stops it afterwards. `npm test` builds the app before vitest runs.
+ * Set E2E_BASE_URL to test a server that is already running instead.
+ */
+import { spawn, type ChildProcess } from "node:child_process";
+import { existsSync } from "node:fs";
+import type { TestProject } from "vitest/node";
+
+const PORT = Number(process.env.E2E_PORT ?? 3100);
+
+async function waitFor(url: string, ms: number): Promise<void> {
+  const until = Date.now() + ms;
+  while (Date.now() < until) {
+    try {
+      const res = await fetch(url);
+      if (res.status < 500) return;
+    } catch {
+      // not up yet
+    }
+    await new Promise((r) => setTimeout(r, 250));
+  }
+  throw new Error(`${url} did not answer within ${ms} ms`);
+}
+
+export default async function setup(project: TestProject) {
+  if (process.env.E2E_BASE_URL) {
+    project.provide("baseUrl", process.env.E2E_BASE_URL);
+    return;
+  }
+  if (!existsSync(".next/BUILD_ID")) {
+    throw new Error("No production build: run `npx next build` first (npm test does this).");
+  }
+  const child: ChildProcess = spawn(
+    process.execPath,
+    ["node_modules/next/dist/bin/next", "start", "-H", "127.0.0.1", "-p", String(PORT)],
+    {
+      env: {
+        ...process.env,
+        DB_TARGET: "test",
+        DB_NAME: process.env.DB_TEST_NAME ?? "loopwright_test",
+        APP_URL: `http://127.0.0.1:${PORT}`,
+        NEXT_TELEMETRY_DISABLED: "1",
+      },
+      stdio: ["ignore", "ignore", "inherit"],
+    },
+  );
+  const baseUrl = `http://127.0.0.1:${PORT}`;
+  await waitFor(`${baseUrl}/api/health`, 30_000);
+  project.provide("baseUrl", baseUrl);
+  return async () => {
+    child.kill("SIGTERM");
+  };
+}
+
+declare module "vitest" {
+  export interface ProvidedContext {
+    baseUrl: string;
+  }
+}

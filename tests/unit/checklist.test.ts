@@ -31,7 +31,11 @@ describe("buildChecklist", () => {
 
   it("a vented cylinder with only the solar coil leaves out the unvented and other-sources items", () => {
     const s = structuredClone(demoSystem);
-    s.cylinder = { ...s.cylinder, type: "vented", coils: [{ heatSource: "solar", position: "bottom", contentL: 4 }] };
+    s.cylinder = {
+      ...s.cylinder,
+      type: "vented",
+      coils: [{ heatSource: "solar", position: "bottom", contentL: 4 }],
+    };
     const keys = build(s).items.map((i) => i.key);
     expect(keys).not.toContain("unvented");
     expect(keys).not.toContain("other-sources");
@@ -51,7 +55,8 @@ describe("buildChecklist", () => {
     expect(new Set(keys).size).toBe(keys.length);
     const produced = new Set(runLoopCheck(demoSystem).findings.map((f) => f.key));
     for (const item of CATALOGUE) {
-      if (item.computed && item.computed !== "first-fill") expect(produced.has(item.computed), item.key).toBe(true);
+      if (item.computed && item.computed !== "first-fill")
+        expect(produced.has(item.computed), item.key).toBe(true);
     }
   });
 });

@@ -1,6 +1,11 @@
 import { describe, expect, it } from "vitest";
 import fc from "fast-check";
-import { glycolDensity, glycolFreezingPoint, glycolViscosity, clampGlycolState } from "@/lib/calc/glycol";
+import {
+  glycolDensity,
+  glycolFreezingPoint,
+  glycolViscosity,
+  clampGlycolState,
+} from "@/lib/calc/glycol";
 
 describe("propylene glycol freezing point", () => {
   // ASHRAE Handbook—Fundamentals, secondary coolants chapter, by mass %: values recalled from
@@ -32,10 +37,14 @@ describe("propylene glycol freezing point", () => {
 
   it("never rises as glycol is added (property)", () => {
     fc.assert(
-      fc.property(fc.double({ min: 0, max: 60, noNaN: true }), fc.double({ min: 0, max: 60, noNaN: true }), (a, b) => {
-        const [lo, hi] = a < b ? [a, b] : [b, a];
-        return glycolFreezingPoint(hi) <= glycolFreezingPoint(lo) + 1e-12;
-      }),
+      fc.property(
+        fc.double({ min: 0, max: 60, noNaN: true }),
+        fc.double({ min: 0, max: 60, noNaN: true }),
+        (a, b) => {
+          const [lo, hi] = a < b ? [a, b] : [b, a];
+          return glycolFreezingPoint(hi) <= glycolFreezingPoint(lo) + 1e-12;
+        },
+      ),
     );
   });
 });

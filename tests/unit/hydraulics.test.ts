@@ -1,5 +1,12 @@
 import { describe, expect, it } from "vitest";
-import { colebrook, frictionFactor, pipePressureDrop, reynolds, swameeJain, velocity } from "@/lib/calc/hydraulics";
+import {
+  colebrook,
+  frictionFactor,
+  pipePressureDrop,
+  reynolds,
+  swameeJain,
+  velocity,
+} from "@/lib/calc/hydraulics";
 
 describe("Darcy–Weisbach worked examples", () => {
   it("Çengel & Cimbala, head loss in a water pipe: f ≈ 0.0172, Δp ≈ 96.5 kPa", () => {
@@ -29,14 +36,23 @@ describe("Darcy–Weisbach worked examples", () => {
   it("Swamee–Jain stays within 2 % of Colebrook (its published accuracy)", () => {
     for (const re of [5e3, 1e4, 1e5, 1e6]) {
       for (const rr of [1e-5, 1e-4, 1e-3]) {
-        expect(Math.abs(swameeJain(re, rr) - colebrook(re, rr)) / colebrook(re, rr)).toBeLessThan(0.02);
+        expect(Math.abs(swameeJain(re, rr) - colebrook(re, rr)) / colebrook(re, rr)).toBeLessThan(
+          0.02,
+        );
       }
     }
   });
 
   it("laminar branch is 64/Re", () => {
     expect(frictionFactor(1000, 1e-4)).toBeCloseTo(0.064, 12);
-    const r = pipePressureDrop({ flowM3s: 1e-5, innerDiameterM: 0.0136, lengthM: 10, roughnessM: 1.5e-6, densityKgM3: 1030, dynamicViscosityPas: 4e-3 });
+    const r = pipePressureDrop({
+      flowM3s: 1e-5,
+      innerDiameterM: 0.0136,
+      lengthM: 10,
+      roughnessM: 1.5e-6,
+      densityKgM3: 1030,
+      dynamicViscosityPas: 4e-3,
+    });
     expect(r.laminar).toBe(true);
     // Hagen–Poiseuille: Δp = 128 μ L Q / (π D⁴)
     const hp = (128 * 4e-3 * 10 * 1e-5) / (Math.PI * 0.0136 ** 4);

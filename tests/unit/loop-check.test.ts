@@ -8,14 +8,19 @@ import {
   recommendedPrechargeBar,
   requiredVesselVolumeL,
 } from "@/lib/calc/expansion";
-import { DEFAULT_COEFFICIENTS, stagnationTemperatureC, collectorOutputW } from "@/lib/calc/collector";
+import {
+  DEFAULT_COEFFICIENTS,
+  stagnationTemperatureC,
+  collectorOutputW,
+} from "@/lib/calc/collector";
 import { systemSchema, type SystemInput } from "@/lib/validation/system";
 import type { Finding } from "@/lib/calc/findings";
 import { arbitrarySystem } from "../support/arbitrary-system";
 
 const clone = (): SystemInput => structuredClone(demoSystem);
 const find = (findings: Finding[], key: string) => findings.filter((f) => f.key === key);
-const value = (f: Finding | undefined, label: string) => f?.values.find((v) => v.label === label)?.value;
+const value = (f: Finding | undefined, label: string) =>
+  f?.values.find((v) => v.label === label)?.value;
 
 describe("trade rules of thumb (common practice, used as sanity ranges)", () => {
   it("stagnation: evacuated tubes with default coefficients exceed 200 °C; flat plates land in 150–210 °C", () => {
@@ -67,7 +72,20 @@ describe("runLoopCheck on the example system", () => {
 
   it("has a finding for every computed key and no input problems", () => {
     const keys = new Set(result.findings.map((f) => f.key));
-    for (const k of ["fluid-volume", "vessel-size", "vessel-precharge", "vessel-rating", "fill-pressure", "relief-margin", "freeze", "flow-rate", "hydraulics", "collector-output", "stagnation", "component-ratings"]) {
+    for (const k of [
+      "fluid-volume",
+      "vessel-size",
+      "vessel-precharge",
+      "vessel-rating",
+      "fill-pressure",
+      "relief-margin",
+      "freeze",
+      "flow-rate",
+      "hydraulics",
+      "collector-output",
+      "stagnation",
+      "component-ratings",
+    ]) {
       expect(keys.has(k as Finding["key"]), k).toBe(true);
     }
     expect(keys.has("input")).toBe(false);
@@ -80,7 +98,13 @@ describe("runLoopCheck on the example system", () => {
     const steam = Number(value(f, "Steam volume at stagnation"));
     const p0 = recommendedPrechargeBar(8);
     const pe = finalPressureBar(6);
-    const expected = requiredVesselVolumeL({ expansionL: expansion, waterSealL: seal, steamVolumeL: steam, prechargeBar: p0, finalPressureBar: pe });
+    const expected = requiredVesselVolumeL({
+      expansionL: expansion,
+      waterSealL: seal,
+      steamVolumeL: steam,
+      prechargeBar: p0,
+      finalPressureBar: pe,
+    });
     expect(Number(value(f, "Required nominal volume"))).toBeCloseTo(expected, 0);
     // The steam volume is the two collectors (2 × 1.6 L) plus 4 m of 15 × 0.7 tube (0.1453 L/m, EN 1057).
     expect(steam).toBeCloseTo(3.2 + 4 * 0.1453, 2);
@@ -118,21 +142,30 @@ describe("properties", () => {
 
   it("a larger static height never lowers the pre-charge", () => {
     fc.assert(
-      fc.property(fc.double({ min: 0, max: 40, noNaN: true }), fc.double({ min: 0, max: 40, noNaN: true }), (a, b) => {
-        const [lo, hi] = a < b ? [a, b] : [b, a];
-        return recommendedPrechargeBar(hi) >= recommendedPrechargeBar(lo);
-      }),
+      fc.property(
+        fc.double({ min: 0, max: 40, noNaN: true }),
+        fc.double({ min: 0, max: 40, noNaN: true }),
+        (a, b) => {
+          const [lo, hi] = a < b ? [a, b] : [b, a];
+          return recommendedPrechargeBar(hi) >= recommendedPrechargeBar(lo);
+        },
+      ),
     );
   });
 
   it("a higher relief setting never increases the required vessel volume", () => {
     fc.assert(
-      fc.property(arbitrarySystem, fc.double({ min: 1.5, max: 10, noNaN: true }), fc.double({ min: 1.5, max: 10, noNaN: true }), (sys, a, b) => {
-        const [lo, hi] = a < b ? [a, b] : [b, a];
-        const low = { ...sys, pumpStation: { ...sys.pumpStation, reliefValveBar: lo } };
-        const high = { ...sys, pumpStation: { ...sys.pumpStation, reliefValveBar: hi } };
-        return requiredFor(high) <= requiredFor(low) + 1e-9;
-      }),
+      fc.property(
+        arbitrarySystem,
+        fc.double({ min: 1.5, max: 10, noNaN: true }),
+        fc.double({ min: 1.5, max: 10, noNaN: true }),
+        (sys, a, b) => {
+          const [lo, hi] = a < b ? [a, b] : [b, a];
+          const low = { ...sys, pumpStation: { ...sys.pumpStation, reliefValveBar: lo } };
+          const high = { ...sys, pumpStation: { ...sys.pumpStation, reliefValveBar: hi } };
+          return requiredFor(high) <= requiredFor(low) + 1e-9;
+        },
+      ),
       { numRuns: 200 },
     );
   });
@@ -149,7 +182,8 @@ describe("properties", () => {
           }
           expect(f.title).not.toMatch(/NaN|Infinity|undefined/);
         }
-        for (const p of r.charts.pressure?.points ?? []) expect(p.pressureBar === null || Number.isFinite(p.pressureBar)).toBe(true);
+        for (const p of r.charts.pressure?.points ?? [])
+          expect(p.pressureBar === null || Number.isFinite(p.pressureBar)).toBe(true);
       }),
       { numRuns: 300 },
     );
@@ -171,7 +205,11 @@ describe("properties", () => {
   it("says what is missing in a half-filled draft and still computes what it can", () => {
     const r = runLoopCheck({ site: demoSystem.site, fluid: demoSystem.fluid });
     expect(find(r.findings, "freeze")[0]?.level).toBe("ok");
-    expect(r.findings.some((f) => f.key === "input" && f.title.startsWith("Collector array"))).toBe(true);
-    expect(r.findings.some((f) => f.key === "vessel-size" && f.title.includes("not checked yet"))).toBe(true);
+    expect(r.findings.some((f) => f.key === "input" && f.title.startsWith("Collector array"))).toBe(
+      true,
+    );
+    expect(
+      r.findings.some((f) => f.key === "vessel-size" && f.title.includes("not checked yet")),
+    ).toBe(true);
   });
 });

@@ -11,9 +11,10 @@ export default function LoopCheckPage() {
       <header className="space-y-2">
         <h1 className="text-3xl font-bold">Loop check</h1>
         <p className="max-w-3xl text-lg text-slate-700">
-          Describe the solar primary loop and get the numbers a reviewer would start from: fluid volume, expansion
-          vessel and pre-charge, fill pressure, relief margin, freeze protection, flow and stagnation. The form starts
-          with an example system; change it to yours. Nothing is saved.
+          Describe the solar primary loop and get the numbers a reviewer would start from: fluid
+          volume, expansion vessel and pre-charge, fill pressure, relief margin, freeze protection,
+          flow and stagnation. The form starts with an example system; change it to yours. Nothing
+          is saved.
         </p>
       </header>
       <Cautions compact />

@@ -1,0 +1,27 @@
+import type { Knex } from "knex";
+import * as accounts from "./20261201_0001_accounts";
+import * as marketplace from "./20261201_0002_marketplace";
+import * as jobsAndMoney from "./20261201_0003_jobs_and_money";
+import * as operations from "./20261201_0004_operations";
+
+/**
+ * Every migration, in order. Listed here rather than read from the folder so the same source
+ * works under tsx, vitest and any bundler (knex's folder loader needs a native TS loader).
+ * Add a new migration file and its line below; the names are the ones stored in knex_migrations.
+ */
+const MIGRATIONS: Record<string, Knex.Migration> = {
+  "20261201_0001_accounts.ts": accounts,
+  "20261201_0002_marketplace.ts": marketplace,
+  "20261201_0003_jobs_and_money.ts": jobsAndMoney,
+  "20261201_0004_operations.ts": operations,
+};
+
+export const migrationSource: Knex.MigrationSource<string> = {
+  getMigrations: async () => Object.keys(MIGRATIONS),
+  getMigrationName: (name) => name,
+  getMigration: async (name) => {
+    const m = MIGRATIONS[name];
+    if (!m) throw new Error(`unknown migration ${name}`);
+    return m;
+  },
+};
