@@ -24,6 +24,5 @@ export default defineConfig({
     hookTimeout: 120_000,
     globalSetup: ["tests/support/global-setup.ts"],
     reporters: ["default"],
-    benchmark: { include: ["tests/bench/**/*.bench.ts"] },
   },
 });
