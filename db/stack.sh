@@ -41,6 +41,16 @@ start_background() { # name, command...
   log "started $name (pid $!)"
 }
 
+wait_for_app() { # pid: wait until /api/health answers, or fail if the app process died
+  for _ in $(seq 1 240); do
+    if ! kill -0 "$1" 2>/dev/null; then log "the app did not start (is port $PORT already in use?)"; exit 1; fi
+    if node -e 'fetch(process.argv[1]).then((r) => process.exit(r.ok ? 0 : 1), () => process.exit(1))' \
+      "http://127.0.0.1:$PORT/api/health"; then return; fi
+    sleep 0.25
+  done
+  log "the app did not answer within 60 s"; exit 1
+}
+
 prepare() {
   ensure_node_modules
   node --import tsx lib/env-check.ts
@@ -60,6 +70,7 @@ case "${1:-}" in
     else
       start_background app node node_modules/next/dist/bin/next dev -H 127.0.0.1 -p "$PORT"
     fi
+    wait_for_app "${PIDS[-1]}"
     npx tsx db/print-demo-logins.ts "http://127.0.0.1:$PORT"
     log "Ctrl-C stops the app and the fakes; 'npm run stop' stops the database"
     wait -n "${PIDS[@]}"
