@@ -63,6 +63,8 @@ case "${1:-}" in
     npx tsx db/migrate.ts latest
     npx tsx db/seed.ts
     trap cleanup EXIT INT TERM
+    start_background mail-fake node --import tsx mocks/mail/server.ts
+    start_background worker node --import tsx lib/worker/main.ts
     if [ "$1" = start ]; then
       log "building the app"
       npx next build >/tmp/loopwright-build.log 2>&1 || { tail -40 /tmp/loopwright-build.log; exit 1; }

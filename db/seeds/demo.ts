@@ -9,6 +9,7 @@ import { demoSystem } from "../../lib/calc/demo-system";
 import { runLoopCheck } from "../../lib/calc/loop-check";
 import { systemSchema, type SystemInput } from "../../lib/validation/system";
 import { CATALOGUE_VERSION } from "../../lib/checklist/catalogue";
+import { CREDENTIAL_KINDS } from "../../lib/credentials";
 
 export const DEMO_PASSWORD = "demo-loop-2026";
 
@@ -51,14 +52,6 @@ export const DEMO_USERS = {
     },
   ],
 } as const;
-
-const CREDENTIAL_KINDS = [
-  "solar_thermal_competence",
-  "unvented_hot_water_competence",
-  "water_regulations_competence",
-  "public_liability_insurance",
-  "trade_registration",
-] as const;
 
 const JOB_STATES = [
   "awaiting_payment",

@@ -6,8 +6,12 @@
 import { spawn, type ChildProcess } from "node:child_process";
 import { existsSync } from "node:fs";
 import type { TestProject } from "vitest/node";
+import { startMailFake } from "../../mocks/mail/server";
 
 const PORT = Number(process.env.E2E_PORT ?? 3100);
+// The test stack uses its own ports so it can run beside `npm start`.
+const MAIL_SMTP_PORT = 2526;
+const MAIL_HTTP_PORT = 2581;
 
 async function waitFor(url: string, ms: number): Promise<void> {
   const until = Date.now() + ms;
@@ -24,9 +28,16 @@ async function waitFor(url: string, ms: number): Promise<void> {
 }
 
 export default async function setup(project: TestProject) {
+  const mail = await startMailFake({
+    smtpPort: MAIL_SMTP_PORT,
+    httpPort: MAIL_HTTP_PORT,
+    dir: ".data/mail-test",
+  });
+  project.provide("mailUrl", `http://127.0.0.1:${MAIL_HTTP_PORT}`);
+  project.provide("smtpPort", MAIL_SMTP_PORT);
   if (process.env.E2E_BASE_URL) {
     project.provide("baseUrl", process.env.E2E_BASE_URL);
-    return;
+    return () => mail.close();
   }
   if (!existsSync(".next/BUILD_ID")) {
     throw new Error("No production build: run `npx next build` first (npm test does this).");
@@ -50,11 +61,14 @@ export default async function setup(project: TestProject) {
   project.provide("baseUrl", baseUrl);
   return async () => {
     child.kill("SIGTERM");
+    await mail.close();
   };
 }
 
 declare module "vitest" {
   export interface ProvidedContext {
     baseUrl: string;
+    mailUrl: string;
+    smtpPort: number;
   }
 }

@@ -1,0 +1,364 @@
+/**
+ * The notifications: one function per event that someone must act on. Each reads what the
+ * e-mail needs and queues it in the caller's transaction. Dedupe keys tie an e-mail to its
+ * event, so a repeated event (a webhook delivered twice, a retried action) sends nothing new.
+ */
+import type { Knex } from "knex";
+import { formatMoney } from "@/lib/money";
+import { credentialName } from "@/lib/credentials";
+import { enqueueEmail } from "./outbox";
+
+type Trx = Knex | Knex.Transaction;
+
+/** At most one new-message e-mail per thread and recipient in this window. */
+export const MESSAGE_EMAIL_WINDOW_MS = 15 * 60_000;
+
+const OUTCOMES: Record<string, string> = {
+  ready_to_commission: "ready to commission",
+  fix_before_filling: "fix before filling",
+  do_not_proceed: "do not proceed",
+};
+const RESOLUTIONS: Record<string, string> = {
+  release: "the payment is released to the reviewer",
+  partial_refund: "part of the payment is refunded",
+  full_refund: "the payment is refunded in full",
+};
+
+async function quoteContext(trx: Trx, quoteId: number) {
+  const q = await trx("quotes as q")
+    .join("requests as r", "r.id", "q.request_id")
+    .join("projects as p", "p.id", "r.project_id")
+    .join("users as h", "h.id", "r.homeowner_id")
+    .join("users as v", "v.id", "q.reviewer_id")
+    .leftJoin("reviewer_profiles as rp", "rp.user_id", "q.reviewer_id")
+    .where("q.id", quoteId)
+    .first(
+      "q.id",
+      "q.price_minor",
+      "q.currency",
+      "q.decline_reason",
+      "r.id as request_id",
+      "p.title",
+      "h.id as homeowner_id",
+      "h.email as homeowner_email",
+      "h.display_name as homeowner_name",
+      "v.id as reviewer_id",
+      "v.email as reviewer_email",
+      "v.display_name as reviewer_name",
+      "rp.trading_name",
+    );
+  if (!q) throw new Error(`quote ${quoteId} not found`);
+  return q;
+}
+
+async function jobContext(trx: Trx, jobId: number) {
+  const j = await trx("jobs as j")
+    .join("requests as r", "r.id", "j.request_id")
+    .join("projects as p", "p.id", "r.project_id")
+    .join("users as h", "h.id", "j.homeowner_id")
+    .join("users as v", "v.id", "j.reviewer_id")
+    .leftJoin("reviewer_profiles as rp", "rp.user_id", "j.reviewer_id")
+    .where("j.id", jobId)
+    .first(
+      "j.id",
+      "j.amount_minor",
+      "j.fee_minor",
+      "j.currency",
+      "j.release_due_at",
+      "p.title",
+      "h.id as homeowner_id",
+      "h.email as homeowner_email",
+      "h.display_name as homeowner_name",
+      "v.id as reviewer_id",
+      "v.email as reviewer_email",
+      "v.display_name as reviewer_name",
+      "rp.trading_name",
+    );
+  if (!j) throw new Error(`job ${jobId} not found`);
+  return j;
+}
+
+export async function notifyNewQuote(trx: Trx, appUrl: string, quoteId: number) {
+  const q = await quoteContext(trx, quoteId);
+  return enqueueEmail(trx, {
+    to: { address: q.homeowner_email, userId: q.homeowner_id },
+    template: "new_quote",
+    payload: {
+      name: q.homeowner_name,
+      projectTitle: q.title,
+      reviewerName: q.trading_name ?? q.reviewer_name,
+      price: formatMoney(q.price_minor, q.currency),
+      url: `${appUrl}/requests/${q.request_id}`,
+    },
+    dedupeKey: `quote-${q.id}-new`,
+  });
+}
+
+export async function notifyQuoteAccepted(
+  trx: Trx,
+  appUrl: string,
+  quoteId: number,
+  jobId: number,
+) {
+  const q = await quoteContext(trx, quoteId);
+  return enqueueEmail(trx, {
+    to: { address: q.reviewer_email, userId: q.reviewer_id },
+    template: "quote_accepted",
+    payload: {
+      name: q.reviewer_name,
+      projectTitle: q.title,
+      price: formatMoney(q.price_minor, q.currency),
+      url: `${appUrl}/jobs/${jobId}`,
+    },
+    dedupeKey: `quote-${q.id}-accepted`,
+  });
+}
+
+export async function notifyQuoteDeclined(trx: Trx, appUrl: string, quoteId: number) {
+  const q = await quoteContext(trx, quoteId);
+  return enqueueEmail(trx, {
+    to: { address: q.reviewer_email, userId: q.reviewer_id },
+    template: "quote_declined",
+    payload: {
+      name: q.reviewer_name,
+      projectTitle: q.title,
+      reason: q.decline_reason,
+      url: `${appUrl}/board`,
+    },
+    dedupeKey: `quote-${q.id}-declined`,
+  });
+}
+
+/** Funds held: the homeowner is told their money is safe; the reviewer can start. */
+export async function notifyPaymentReceived(trx: Trx, appUrl: string, jobId: number) {
+  const j = await jobContext(trx, jobId);
+  const amount = formatMoney(j.amount_minor, j.currency);
+  const url = `${appUrl}/jobs/${j.id}`;
+  for (const [address, userId, name] of [
+    [j.homeowner_email, j.homeowner_id, j.homeowner_name],
+    [j.reviewer_email, j.reviewer_id, j.reviewer_name],
+  ] as const) {
+    await enqueueEmail(trx, {
+      to: { address, userId },
+      template: "payment_received",
+      payload: { name, projectTitle: j.title, amount, url },
+      dedupeKey: `job-${j.id}-funded-${userId}`,
+    });
+  }
+}
+
+export async function notifyReviewStarted(trx: Trx, appUrl: string, jobId: number) {
+  const j = await jobContext(trx, jobId);
+  return enqueueEmail(trx, {
+    to: { address: j.homeowner_email, userId: j.homeowner_id },
+    template: "review_started",
+    payload: {
+      name: j.homeowner_name,
+      projectTitle: j.title,
+      reviewerName: j.trading_name ?? j.reviewer_name,
+      url: `${appUrl}/jobs/${j.id}`,
+    },
+    dedupeKey: `job-${j.id}-review-started`,
+  });
+}
+
+export async function notifyReportDelivered(
+  trx: Trx,
+  appUrl: string,
+  jobId: number,
+  outcome: string,
+) {
+  const j = await jobContext(trx, jobId);
+  return enqueueEmail(trx, {
+    to: { address: j.homeowner_email, userId: j.homeowner_id },
+    template: "report_delivered",
+    payload: {
+      name: j.homeowner_name,
+      projectTitle: j.title,
+      outcome: OUTCOMES[outcome] ?? outcome,
+      releaseBy: String(j.release_due_at ?? "").slice(0, 10),
+      url: `${appUrl}/jobs/${j.id}/report`,
+    },
+    dedupeKey: `job-${j.id}-delivered`,
+  });
+}
+
+export async function notifyFundsReleased(trx: Trx, appUrl: string, jobId: number) {
+  const j = await jobContext(trx, jobId);
+  return enqueueEmail(trx, {
+    to: { address: j.reviewer_email, userId: j.reviewer_id },
+    template: "funds_released",
+    payload: {
+      name: j.reviewer_name,
+      projectTitle: j.title,
+      amount: formatMoney(j.amount_minor - j.fee_minor, j.currency),
+      url: `${appUrl}/jobs/${j.id}`,
+    },
+    dedupeKey: `job-${j.id}-released`,
+  });
+}
+
+/** A dispute goes to the reviewer and to every admin, who settle it. */
+export async function notifyDisputeOpened(trx: Trx, appUrl: string, jobId: number, reason: string) {
+  const j = await jobContext(trx, jobId);
+  const admins = await trx("users").where({ role: "admin" }).select("id", "email", "display_name");
+  const recipients = [
+    {
+      id: j.reviewer_id,
+      email: j.reviewer_email,
+      display_name: j.reviewer_name,
+      path: `/jobs/${j.id}`,
+    },
+    ...admins.map((a) => ({ ...a, path: `/admin/disputes` })),
+  ];
+  for (const r of recipients) {
+    await enqueueEmail(trx, {
+      to: { address: r.email, userId: r.id },
+      template: "dispute_opened",
+      payload: { name: r.display_name, projectTitle: j.title, reason, url: `${appUrl}${r.path}` },
+      dedupeKey: `job-${j.id}-dispute-opened-${r.id}`,
+    });
+  }
+}
+
+export async function notifyDisputeSettled(
+  trx: Trx,
+  appUrl: string,
+  jobId: number,
+  resolution: string,
+) {
+  const j = await jobContext(trx, jobId);
+  for (const [address, userId, name] of [
+    [j.homeowner_email, j.homeowner_id, j.homeowner_name],
+    [j.reviewer_email, j.reviewer_id, j.reviewer_name],
+  ] as const) {
+    await enqueueEmail(trx, {
+      to: { address, userId },
+      template: "dispute_settled",
+      payload: {
+        name,
+        projectTitle: j.title,
+        resolution: RESOLUTIONS[resolution] ?? resolution,
+        url: `${appUrl}/jobs/${j.id}`,
+      },
+      dedupeKey: `job-${j.id}-dispute-settled-${userId}`,
+    });
+  }
+}
+
+async function credentialContext(trx: Trx, credentialId: number) {
+  const c = await trx("credentials as c")
+    .join("users as u", "u.id", "c.reviewer_id")
+    .where("c.id", credentialId)
+    .first(
+      "c.id",
+      "c.kind",
+      "c.expires_on",
+      "c.admin_reason",
+      "c.reviewed_at",
+      "u.id as user_id",
+      "u.email",
+      "u.display_name",
+    );
+  if (!c) throw new Error(`credential ${credentialId} not found`);
+  return c;
+}
+
+export async function notifyCredentialVerified(trx: Trx, appUrl: string, credentialId: number) {
+  const c = await credentialContext(trx, credentialId);
+  return enqueueEmail(trx, {
+    to: { address: c.email, userId: c.user_id },
+    template: "credential_verified",
+    payload: {
+      name: c.display_name,
+      credential: credentialName(c.kind),
+      expiresOn: String(c.expires_on),
+      url: `${appUrl}/reviewer/credentials`,
+    },
+    dedupeKey: `credential-${c.id}-verified-${c.reviewed_at}`,
+  });
+}
+
+export async function notifyCredentialRejected(trx: Trx, appUrl: string, credentialId: number) {
+  const c = await credentialContext(trx, credentialId);
+  return enqueueEmail(trx, {
+    to: { address: c.email, userId: c.user_id },
+    template: "credential_rejected",
+    payload: {
+      name: c.display_name,
+      credential: credentialName(c.kind),
+      reason: c.admin_reason ?? "no reason given",
+      url: `${appUrl}/reviewer/credentials`,
+    },
+    dedupeKey: `credential-${c.id}-rejected-${c.reviewed_at}`,
+  });
+}
+
+/**
+ * New message in a thread: batched, at most one e-mail per thread and recipient every 15
+ * minutes. The recipient's message_reads row is locked so two messages sent at once decide
+ * the window together.
+ */
+export async function notifyNewMessage(
+  trx: Knex.Transaction,
+  appUrl: string,
+  messageId: number,
+  now = new Date(),
+) {
+  const m = await trx("messages as m")
+    .join("message_threads as t", "t.id", "m.thread_id")
+    .join("requests as r", "r.id", "t.request_id")
+    .join("projects as p", "p.id", "r.project_id")
+    .join("users as s", "s.id", "m.sender_id")
+    .where("m.id", messageId)
+    .first(
+      "m.id",
+      "m.thread_id",
+      "m.body_md",
+      "m.sender_id",
+      "t.reviewer_id",
+      "r.homeowner_id",
+      "r.id as request_id",
+      "p.title",
+      "s.display_name as sender_name",
+    );
+  if (!m) throw new Error(`message ${messageId} not found`);
+  const recipientId = m.sender_id === m.homeowner_id ? m.reviewer_id : m.homeowner_id;
+  const recipient = await trx("users")
+    .where({ id: recipientId })
+    .first("id", "email", "display_name");
+  if (!recipient) return "opted_out" as const;
+  await trx.raw("INSERT IGNORE INTO message_reads (thread_id, user_id) VALUES (?, ?)", [
+    m.thread_id,
+    recipientId,
+  ]);
+  const read = await trx("message_reads")
+    .where({ thread_id: m.thread_id, user_id: recipientId })
+    .forUpdate()
+    .first("last_emailed_at");
+  if (
+    read?.last_emailed_at &&
+    now.getTime() - new Date(`${read.last_emailed_at}Z`).getTime() < MESSAGE_EMAIL_WINDOW_MS
+  ) {
+    return "batched" as const;
+  }
+  const preview = String(m.body_md).replace(/\s+/g, " ").slice(0, 140);
+  const result = await enqueueEmail(trx, {
+    to: { address: recipient.email, userId: recipient.id },
+    template: "new_message",
+    payload: {
+      name: recipient.display_name,
+      senderName: m.sender_name,
+      projectTitle: m.title,
+      preview,
+      url: `${appUrl}/requests/${m.request_id}/messages`,
+    },
+    dedupeKey: `message-${m.id}`,
+  });
+  if (result === "queued") {
+    await trx("message_reads")
+      .where({ thread_id: m.thread_id, user_id: recipientId })
+      .update({ last_emailed_at: now.toISOString().slice(0, 23).replace("T", " ") });
+  }
+  return result;
+}
