@@ -3,7 +3,7 @@
  * the e-mail, so either both are written or neither. The worker (lib/worker/mail.ts) sends.
  */
 import type { Knex } from "knex";
-import { OPTIONAL_TEMPLATES, type TemplateName, type TemplatePayloads } from "./templates";
+import { OPTIONAL_TEMPLATES, type TemplateName, type TemplatePayloads } from "./kinds";
 
 export interface EnqueueEmail<K extends TemplateName> {
   to: { address: string; userId?: number | null };

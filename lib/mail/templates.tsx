@@ -4,50 +4,9 @@
  * HTML part from that one definition. The HTML is rendered from React components.
  */
 import { renderToStaticMarkup } from "react-dom/server";
+import type { TemplateName, TemplatePayloads } from "./kinds";
 
-export interface TemplatePayloads {
-  verify_email: { name: string; url: string };
-  reset_password: { name: string; url: string };
-  new_quote: {
-    name: string;
-    projectTitle: string;
-    reviewerName: string;
-    price: string;
-    url: string;
-  };
-  quote_accepted: { name: string; projectTitle: string; price: string; url: string };
-  quote_declined: { name: string; projectTitle: string; reason?: string | null; url: string };
-  payment_received: { name: string; projectTitle: string; amount: string; url: string };
-  review_started: { name: string; projectTitle: string; reviewerName: string; url: string };
-  report_delivered: {
-    name: string;
-    projectTitle: string;
-    outcome: string;
-    releaseBy: string;
-    url: string;
-  };
-  funds_released: { name: string; projectTitle: string; amount: string; url: string };
-  dispute_opened: { name: string; projectTitle: string; reason: string; url: string };
-  dispute_settled: { name: string; projectTitle: string; resolution: string; url: string };
-  credential_verified: { name: string; credential: string; expiresOn: string; url: string };
-  credential_rejected: { name: string; credential: string; reason: string; url: string };
-  credential_expiring: { name: string; credential: string; expiresOn: string; url: string };
-  new_message: {
-    name: string;
-    senderName: string;
-    projectTitle: string;
-    preview: string;
-    url: string;
-  };
-}
-
-export type TemplateName = keyof TemplatePayloads;
-
-/** Kinds a person may switch off; the others (money, security, credentials) always go. */
-export const OPTIONAL_TEMPLATES = [
-  "new_message",
-  "new_quote",
-] as const satisfies readonly TemplateName[];
+export type { TemplateName, TemplatePayloads } from "./kinds";
 
 export const SAFETY_LINE =
   "Loopwright is advisory: local building codes, the manufacturer's instructions and licensed practice take precedence. Never open or work on a hot solar loop.";

@@ -1,0 +1,195 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { pageUser } from "@/lib/server/auth/session";
+import { db } from "@/lib/server/db";
+import {
+  listCredentialQueue,
+  QUEUE_PAGE_SIZE,
+  queueQuerySchema,
+  type QueueQuery,
+} from "@/lib/server/reviewers";
+import { CREDENTIAL_KINDS, credentialName } from "@/lib/credentials";
+import { Card } from "@/components/ui/card";
+import { Forbidden } from "@/components/ui/forbidden";
+import { Button } from "@/components/ui/button";
+import { inputClass } from "@/components/ui/field";
+import { CredentialStatus } from "@/components/reviewer/credential-status";
+import { CredentialDecision } from "@/components/admin/decision-forms";
+
+export const metadata: Metadata = { title: "Verification queue" };
+
+type Search = Record<string, string | undefined>;
+
+function href(q: QueueQuery, change: Partial<QueueQuery>): string {
+  const next = { ...q, ...change };
+  const params = new URLSearchParams();
+  for (const [k, v] of Object.entries(next))
+    if (v !== undefined && v !== "") params.set(k, String(v));
+  return `/admin/credentials?${params}`;
+}
+
+export default async function CredentialQueuePage({
+  searchParams,
+}: {
+  searchParams: Promise<Search>;
+}) {
+  const user = await pageUser("/admin/credentials", ["admin"]);
+  if (!user) return <Forbidden />;
+  const parsed = queueQuerySchema.safeParse(await searchParams);
+  const query = parsed.success ? parsed.data : queueQuerySchema.parse({});
+  const { rows, total } = await listCredentialQueue(db(), user, query);
+  const pages = Math.max(1, Math.ceil(total / QUEUE_PAGE_SIZE));
+  const sortLink = (col: QueueQuery["sort"], label: string) => {
+    const active = query.sort === col;
+    const dir = active && query.dir === "asc" ? "desc" : "asc";
+    return (
+      <th
+        scope="col"
+        aria-sort={active ? (query.dir === "asc" ? "ascending" : "descending") : "none"}
+        className="py-2 pr-3"
+      >
+        <Link
+          className="underline-offset-2 hover:underline"
+          href={href(query, { sort: col, dir, page: 1 })}
+        >
+          {label} {active ? (query.dir === "asc" ? "▲" : "▼") : ""}
+        </Link>
+      </th>
+    );
+  };
+  return (
+    <div className="space-y-4">
+      <h1 className="text-3xl font-bold">Verification queue</h1>
+      {!parsed.success ? (
+        <p role="alert" className="text-level-stop">
+          Some filters were not valid and were reset.
+        </p>
+      ) : null}
+      <Card>
+        <form
+          method="get"
+          className="flex flex-wrap items-end gap-3"
+          aria-label="Filter credentials"
+        >
+          <label className="text-sm font-semibold">
+            Status
+            <select name="status" defaultValue={query.status} className={inputClass}>
+              {["pending", "verified", "rejected", "expired", "all"].map((s) => (
+                <option key={s} value={s}>
+                  {s}
+                </option>
+              ))}
+            </select>
+          </label>
+          <label className="text-sm font-semibold">
+            Kind
+            <select name="kind" defaultValue={query.kind ?? ""} className={inputClass}>
+              <option value="">any</option>
+              {CREDENTIAL_KINDS.map((k) => (
+                <option key={k} value={k}>
+                  {credentialName(k)}
+                </option>
+              ))}
+            </select>
+          </label>
+          <label className="text-sm font-semibold">
+            Search
+            <input
+              name="q"
+              defaultValue={query.q ?? ""}
+              placeholder="name or number"
+              className={inputClass}
+            />
+          </label>
+          <Button type="submit" variant="secondary">
+            Filter
+          </Button>
+        </form>
+      </Card>
+      <p className="text-slate-600">
+        {total} credential(s) · page {query.page} of {pages}
+      </p>
+      <div className="overflow-x-auto rounded-card border border-slate-200 bg-white">
+        <table className="w-full text-left">
+          <thead className="border-b border-slate-200 text-sm text-slate-600">
+            <tr>
+              <th scope="col" className="py-2 pl-4 pr-3">
+                Reviewer
+              </th>
+              {sortLink("kind", "Kind")}
+              <th scope="col" className="py-2 pr-3">
+                Issuer and number
+              </th>
+              {sortLink("expires_on", "Expires")}
+              {sortLink("status", "Status")}
+              {sortLink("created_at", "Submitted")}
+              <th scope="col" className="py-2 pr-4">
+                Decision
+              </th>
+            </tr>
+          </thead>
+          <tbody>
+            {rows.length === 0 ? (
+              <tr>
+                <td colSpan={7} className="p-4">
+                  Nothing matches.
+                </td>
+              </tr>
+            ) : (
+              rows.map((c) => (
+                <tr
+                  key={c.id}
+                  className="border-b border-slate-100 align-top"
+                  data-credential={c.id}
+                >
+                  <td className="py-3 pl-4 pr-3">
+                    <Link
+                      className="font-semibold underline"
+                      href={`/admin/reviewers/${c.reviewerId}`}
+                    >
+                      {c.tradingName ?? c.reviewerName}
+                    </Link>
+                    <div className="text-sm text-slate-600">{c.reviewerEmail}</div>
+                  </td>
+                  <td className="py-3 pr-3">{credentialName(c.kind)}</td>
+                  <td className="py-3 pr-3">
+                    {c.issuer}
+                    <div className="font-mono text-sm">{c.number}</div>
+                    <div className="text-xs text-slate-500">
+                      {c.evidenceAttachmentId ? "evidence attached" : "no document uploaded"}
+                    </div>
+                  </td>
+                  <td className="py-3 pr-3">{c.expiresOn}</td>
+                  <td className="py-3 pr-3">
+                    <CredentialStatus status={c.status} />
+                    {c.adminReason ? <div className="mt-1 text-sm">{c.adminReason}</div> : null}
+                  </td>
+                  <td className="py-3 pr-3 text-sm">{c.createdAt.slice(0, 16)}</td>
+                  <td className="min-w-72 py-3 pr-4">
+                    <CredentialDecision
+                      credentialId={c.id}
+                      expiresOn={c.expiresOn}
+                      label={`${credentialName(c.kind)} of ${c.reviewerName}`}
+                    />
+                  </td>
+                </tr>
+              ))
+            )}
+          </tbody>
+        </table>
+      </div>
+      <nav aria-label="Pages" className="flex gap-3">
+        {query.page > 1 ? (
+          <Link className="underline" href={href(query, { page: query.page - 1 })}>
+            ← Previous
+          </Link>
+        ) : null}
+        {query.page < pages ? (
+          <Link className="underline" href={href(query, { page: query.page + 1 })}>
+            Next →
+          </Link>
+        ) : null}
+      </nav>
+    </div>
+  );
+}

@@ -1,0 +1,137 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { redirect } from "next/navigation";
+import { getCurrentUser, pageUser } from "@/lib/server/auth/session";
+import { db } from "@/lib/server/db";
+import { getAdminCounts, listOwnProjects } from "@/lib/server/dashboard";
+import { getVerificationStatus } from "@/lib/server/reviewers";
+import { resendVerification } from "@/lib/server/accounts";
+import { credentialName } from "@/lib/credentials";
+import { env } from "@/lib/env";
+import { Card } from "@/components/ui/card";
+import { ButtonLink } from "@/components/ui/button";
+import { LevelBadge } from "@/components/loop-check/level-badge";
+import { VerifyEmailBanner } from "@/components/auth/resend-verification";
+
+export const metadata: Metadata = { title: "Dashboard" };
+
+async function resend() {
+  "use server";
+  const user = await getCurrentUser();
+  if (!user) redirect("/sign-in");
+  await resendVerification(db(), user.id, env().APP_URL);
+  redirect("/dashboard?sent=1");
+}
+
+export default async function DashboardPage({
+  searchParams,
+}: {
+  searchParams: Promise<{ sent?: string }>;
+}) {
+  const user = (await pageUser("/dashboard"))!;
+  const { sent } = await searchParams;
+  return (
+    <div className="space-y-6">
+      <h1 className="text-3xl font-bold">Hello, {user.displayName}</h1>
+      {!user.emailVerified ? <VerifyEmailBanner action={resend} sent={Boolean(sent)} /> : null}
+      {user.role === "homeowner" ? <HomeownerPanel userId={user.id} /> : null}
+      {user.role === "reviewer" ? <ReviewerPanel userId={user.id} /> : null}
+      {user.role === "admin" ? <AdminPanel /> : null}
+    </div>
+  );
+}
+
+async function HomeownerPanel({ userId }: { userId: number }) {
+  const projects = await listOwnProjects(db(), userId);
+  return (
+    <Card>
+      <h2 className="text-xl font-bold">Your projects</h2>
+      {projects.length === 0 ? (
+        <p className="mt-2 text-slate-700">
+          No projects yet. Start with the free loop check while project pages are on their way.
+        </p>
+      ) : (
+        <ul className="mt-3 divide-y divide-slate-100">
+          {projects.map((p) => (
+            <li key={p.id} className="flex flex-wrap items-center gap-3 py-3">
+              {p.worstLevel ? <LevelBadge level={p.worstLevel} /> : null}
+              <span className="flex-1 font-semibold">{p.title}</span>
+              <span className="text-sm text-slate-600">
+                {p.status}
+                {p.openRequests ? ` · ${p.openRequests} open request(s)` : ""}
+              </span>
+            </li>
+          ))}
+        </ul>
+      )}
+      <div className="mt-4">
+        <ButtonLink href="/loop-check" variant="secondary">
+          Run a loop check
+        </ButtonLink>
+      </div>
+    </Card>
+  );
+}
+
+async function ReviewerPanel({ userId }: { userId: number }) {
+  const status = await getVerificationStatus(db(), userId);
+  return (
+    <Card>
+      <h2 className="text-xl font-bold">Verification</h2>
+      {status.suspended ? (
+        <p className="mt-2 font-semibold text-level-stop">
+          Your account is suspended. Contact the Loopwright team.
+        </p>
+      ) : status.verified ? (
+        <p className="mt-2 text-level-ok">
+          You are verified: you can see the request board and quote.
+        </p>
+      ) : (
+        <div className="mt-2 space-y-2">
+          <p>You can quote once these are in place:</p>
+          <ul className="list-disc pl-5">
+            {!status.hasProfile ? (
+              <li>
+                <Link className="underline" href="/reviewer/profile">
+                  Your trade profile
+                </Link>
+              </li>
+            ) : null}
+            {status.missing.map((k) => (
+              <li key={k}>
+                A verified, unexpired{" "}
+                <Link className="underline" href="/reviewer/credentials">
+                  {credentialName(k)}
+                </Link>
+              </li>
+            ))}
+          </ul>
+        </div>
+      )}
+    </Card>
+  );
+}
+
+async function AdminPanel() {
+  const c = await getAdminCounts(db());
+  const tiles = [
+    { label: "Credentials waiting", value: c.pendingCredentials, href: "/admin/credentials" },
+    { label: "E-mails that failed", value: c.failedEmails, href: "/admin/outbox" },
+    { label: "Open disputes", value: c.openDisputes, href: "/dashboard" },
+    { label: "Suspended reviewers", value: c.suspended, href: "/admin/credentials?status=all" },
+  ];
+  return (
+    <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4">
+      {tiles.map((t) => (
+        <Link
+          key={t.label}
+          href={t.href}
+          className="rounded-card border border-slate-200 bg-white p-5 hover:border-copper-400"
+        >
+          <p className="text-3xl font-bold">{t.value}</p>
+          <p className="text-slate-700">{t.label}</p>
+        </Link>
+      ))}
+    </div>
+  );
+}

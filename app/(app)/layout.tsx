@@ -1,0 +1,20 @@
+import { redirect } from "next/navigation";
+import { AppHeader, navFor } from "@/components/layout/app-header";
+import { SiteFooter } from "@/components/layout/site-header";
+import { getCurrentUser } from "@/lib/server/auth/session";
+import { isVerifiedReviewer } from "@/lib/server/reviewers";
+import { db } from "@/lib/server/db";
+
+export default async function AppLayout({ children }: { children: React.ReactNode }) {
+  // The layout only draws the shell; each page checks access for itself.
+  const user = await getCurrentUser();
+  if (!user) redirect("/sign-in");
+  const verified = user.role === "reviewer" ? await isVerifiedReviewer(db(), user.id) : false;
+  return (
+    <>
+      <AppHeader user={user} nav={navFor(user, verified)} />
+      <main className="mx-auto max-w-6xl px-4 py-8">{children}</main>
+      <SiteFooter />
+    </>
+  );
+}

@@ -1,0 +1,19 @@
+import { z } from "zod";
+import { requireRole } from "@/lib/server/auth/session";
+import { db } from "@/lib/server/db";
+import { errorResponse, HttpError } from "@/lib/server/errors";
+import { getCredential } from "@/lib/server/reviewers";
+
+const idSchema = z.coerce.number().int().positive();
+
+/** One credential as JSON: for its reviewer and for admins only. */
+export async function GET(_req: Request, ctx: { params: Promise<{ id: string }> }) {
+  try {
+    const user = await requireRole("reviewer", "admin");
+    const id = idSchema.safeParse((await ctx.params).id);
+    if (!id.success) throw new HttpError(400, "The credential id must be a positive whole number.");
+    return Response.json(await getCredential(db(), user, id.data));
+  } catch (err) {
+    return errorResponse(err);
+  }
+}

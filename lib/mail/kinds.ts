@@ -1,0 +1,44 @@
+/** The e-mail kinds and what each needs; kept apart from the renderer so app code can import it. */
+export interface TemplatePayloads {
+  verify_email: { name: string; url: string };
+  reset_password: { name: string; url: string };
+  new_quote: {
+    name: string;
+    projectTitle: string;
+    reviewerName: string;
+    price: string;
+    url: string;
+  };
+  quote_accepted: { name: string; projectTitle: string; price: string; url: string };
+  quote_declined: { name: string; projectTitle: string; reason?: string | null; url: string };
+  payment_received: { name: string; projectTitle: string; amount: string; url: string };
+  review_started: { name: string; projectTitle: string; reviewerName: string; url: string };
+  report_delivered: {
+    name: string;
+    projectTitle: string;
+    outcome: string;
+    releaseBy: string;
+    url: string;
+  };
+  funds_released: { name: string; projectTitle: string; amount: string; url: string };
+  dispute_opened: { name: string; projectTitle: string; reason: string; url: string };
+  dispute_settled: { name: string; projectTitle: string; resolution: string; url: string };
+  credential_verified: { name: string; credential: string; expiresOn: string; url: string };
+  credential_rejected: { name: string; credential: string; reason: string; url: string };
+  credential_expiring: { name: string; credential: string; expiresOn: string; url: string };
+  new_message: {
+    name: string;
+    senderName: string;
+    projectTitle: string;
+    preview: string;
+    url: string;
+  };
+}
+
+export type TemplateName = keyof TemplatePayloads;
+
+/** Kinds a person may switch off; the others (money, security, credentials) always go. */
+export const OPTIONAL_TEMPLATES = [
+  "new_message",
+  "new_quote",
+] as const satisfies readonly TemplateName[];

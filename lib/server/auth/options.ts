@@ -1,0 +1,61 @@
+import "server-only";
+import type { NextAuthOptions } from "next-auth";
+import CredentialsProvider from "next-auth/providers/credentials";
+import { env } from "@/lib/env";
+import { signInSchema } from "@/lib/validation/auth";
+import { db } from "../db";
+import { authenticate, type Role } from "../accounts";
+
+/**
+ * next-auth v4 with e-mail and password. The JWT carries the user id and role; every page,
+ * action and route handler still reads the user from the database (lib/server/auth/session.ts),
+ * so a suspension or role change takes effect at once.
+ */
+export function authOptions(): NextAuthOptions {
+  const e = env();
+  // next-auth builds its callback URLs from NEXTAUTH_URL; ours is APP_URL.
+  process.env.NEXTAUTH_URL ??= e.APP_URL;
+  return {
+    secret: e.NEXTAUTH_SECRET,
+    session: { strategy: "jwt", maxAge: 7 * 24 * 3600 },
+    // httpOnly and SameSite=Lax are next-auth's defaults; Secure follows the app's scheme.
+    useSecureCookies: e.APP_URL.startsWith("https://"),
+    pages: { signIn: "/sign-in", error: "/sign-in" },
+    providers: [
+      CredentialsProvider({
+        name: "E-mail and password",
+        credentials: {
+          email: { label: "E-mail", type: "email" },
+          password: { label: "Password", type: "password" },
+        },
+        async authorize(credentials) {
+          const parsed = signInSchema.safeParse(credentials ?? {});
+          if (!parsed.success) return null;
+          const user = await authenticate(db(), parsed.data.email, parsed.data.password);
+          return user
+            ? { id: String(user.id), email: user.email, name: user.displayName, role: user.role }
+            : null;
+        },
+      }),
+    ],
+    callbacks: {
+      jwt({ token, user }) {
+        if (user) {
+          token.uid = Number(user.id);
+          token.role = (user as unknown as { role: Role }).role;
+        }
+        return token;
+      },
+      session({ session, token }) {
+        return { ...session, user: { ...session.user, id: token.uid, role: token.role } };
+      },
+    },
+  };
+}
+
+declare module "next-auth/jwt" {
+  interface JWT {
+    uid?: number;
+    role?: Role;
+  }
+}

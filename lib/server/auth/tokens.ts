@@ -1,0 +1,46 @@
+import { createHash, randomBytes } from "node:crypto";
+import type { Knex } from "knex";
+
+export type TokenPurpose = "verify_email" | "reset_password";
+export const TOKEN_TTL_MS: Record<TokenPurpose, number> = {
+  verify_email: 24 * 3_600_000,
+  reset_password: 3_600_000,
+};
+
+const sha256 = (s: string) => createHash("sha256").update(s).digest("hex");
+const sql = (d: Date) => d.toISOString().slice(0, 23).replace("T", " ");
+
+/** A new single-use token: the raw value goes in the e-mail link, only its hash is stored. */
+export async function issueToken(
+  trx: Knex | Knex.Transaction,
+  userId: number,
+  purpose: TokenPurpose,
+  now = new Date(),
+): Promise<string> {
+  const raw = randomBytes(32).toString("base64url");
+  await trx("auth_tokens").insert({
+    user_id: userId,
+    purpose,
+    token_hash: sha256(raw),
+    expires_at: sql(new Date(now.getTime() + TOKEN_TTL_MS[purpose])),
+  });
+  return raw;
+}
+
+/** Use a token once: returns its user id, or null when unknown, used or expired. */
+export async function consumeToken(
+  trx: Knex.Transaction,
+  raw: string,
+  purpose: TokenPurpose,
+  now = new Date(),
+): Promise<number | null> {
+  const row = await trx("auth_tokens")
+    .where({ token_hash: sha256(raw), purpose })
+    .forUpdate()
+    .first("id", "user_id", "expires_at", "used_at");
+  if (!row || row.used_at || new Date(`${row.expires_at}Z`).getTime() < now.getTime()) return null;
+  await trx("auth_tokens")
+    .where({ id: row.id })
+    .update({ used_at: sql(now) });
+  return Number(row.user_id);
+}
