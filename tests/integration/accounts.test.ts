@@ -1,0 +1,158 @@
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import type { Knex } from "knex";
+import {
+  createAccount,
+  authenticate,
+  verifyEmail,
+  requestPasswordReset,
+  resetPassword,
+} from "@/lib/server/accounts";
+import { issueToken } from "@/lib/server/auth/tokens";
+import { hit } from "@/lib/server/rate-limit";
+import { testKnex, truncateAll } from "../support/db";
+
+const APP = "http://app.test";
+const tokenFrom = async (knex: Knex, to: string, template: string) => {
+  const row = await knex("email_outbox")
+    .where({ to_address: to, template })
+    .orderBy("id", "desc")
+    .first("payload");
+  const payload = typeof row.payload === "string" ? JSON.parse(row.payload) : row.payload;
+  return new URL(payload.url).searchParams.get("token")!;
+};
+
+describe("accounts against the real MariaDB", () => {
+  let knex: Knex;
+  beforeAll(() => {
+    knex = testKnex();
+  });
+  beforeEach(async () => {
+    await truncateAll(knex);
+  });
+  afterAll(async () => {
+    await truncateAll(knex);
+    await knex.destroy();
+  });
+
+  const good = {
+    role: "homeowner" as const,
+    displayName: "Ada Test",
+    email: "Ada@Example.test",
+    password: "copper-coil-lantern-9",
+  };
+
+  it("signs up, stores only a bcrypt hash, and queues the verification e-mail in the same transaction", async () => {
+    const r = await createAccount(knex, good, APP);
+    expect(r.ok).toBe(true);
+    const user = await knex("users").where({ email: "ada@example.test" }).first();
+    expect(user.password_hash).toMatch(/^\$2[aby]\$/);
+    expect(user.password_hash).not.toContain(good.password);
+    expect(user.email_verified_at).toBeNull();
+    const mail = await knex("email_outbox").where({
+      to_address: "ada@example.test",
+      template: "verify_email",
+    });
+    expect(mail).toHaveLength(1);
+    const stored = await knex("auth_tokens").first("token_hash");
+    expect(stored.token_hash).toMatch(/^[0-9a-f]{64}$/);
+  });
+
+  it("gives field errors for a duplicate address, a short password and a common password", async () => {
+    await createAccount(knex, good, APP);
+    const dup = await createAccount(knex, { ...good, email: "ada@example.test" }, APP);
+    expect(dup.ok).toBe(false);
+    expect(!dup.ok && dup.fieldErrors.email?.[0]).toMatch(/already exists/);
+    const short = await createAccount(
+      knex,
+      { ...good, email: "b@example.test", password: "short" },
+      APP,
+    );
+    expect(!short.ok && short.fieldErrors.password?.[0]).toMatch(/at least 10/);
+    const common = await createAccount(
+      knex,
+      { ...good, email: "c@example.test", password: "password123" },
+      APP,
+    );
+    expect(!common.ok && common.fieldErrors.password?.[0]).toMatch(/common passwords/);
+    expect(await knex("users").count({ n: "*" })).toEqual([{ n: 1 }]);
+  });
+
+  it("cannot sign up as an admin", async () => {
+    const r = await createAccount(knex, { ...good, role: "admin" as never }, APP);
+    expect(r.ok).toBe(false);
+  });
+
+  it("authenticates with the right password only, and says nothing about which part was wrong", async () => {
+    await createAccount(knex, good, APP);
+    expect(await authenticate(knex, "ADA@example.test", good.password)).toMatchObject({
+      email: "ada@example.test",
+      role: "homeowner",
+    });
+    expect(await authenticate(knex, "ada@example.test", "wrong-password-123")).toBeNull();
+    expect(await authenticate(knex, "nobody@example.test", good.password)).toBeNull();
+  });
+
+  it("verifies the address with a single-use token", async () => {
+    await createAccount(knex, good, APP);
+    const token = await tokenFrom(knex, "ada@example.test", "verify_email");
+    expect(await verifyEmail(knex, token)).toBe(true);
+    expect((await knex("users").first("email_verified_at")).email_verified_at).not.toBeNull();
+    expect(await verifyEmail(knex, token)).toBe(false);
+  });
+
+  it("refuses an expired token", async () => {
+    await createAccount(knex, good, APP);
+    const user = await knex("users").first("id");
+    const old = await issueToken(
+      knex,
+      user.id,
+      "verify_email",
+      new Date(Date.now() - 2 * 86_400_000),
+    );
+    expect(await verifyEmail(knex, old)).toBe(false);
+  });
+
+  it("resets a password once, without revealing whether an address is registered", async () => {
+    await createAccount(knex, good, APP);
+    await requestPasswordReset(knex, "nobody@example.test", APP);
+    expect(await knex("email_outbox").where({ template: "reset_password" })).toHaveLength(0);
+    await requestPasswordReset(knex, "ada@example.test", APP);
+    const token = await tokenFrom(knex, "ada@example.test", "reset_password");
+    const mismatch = await resetPassword(knex, {
+      token,
+      password: "a-new-long-password",
+      confirm: "different-one-here",
+    });
+    expect(!mismatch.ok && mismatch.fieldErrors.confirm).toBeTruthy();
+    expect(
+      (
+        await resetPassword(knex, {
+          token,
+          password: "a-new-long-password",
+          confirm: "a-new-long-password",
+        })
+      ).ok,
+    ).toBe(true);
+    expect(await authenticate(knex, "ada@example.test", "a-new-long-password")).not.toBeNull();
+    expect(await authenticate(knex, "ada@example.test", good.password)).toBeNull();
+    const again = await resetPassword(knex, {
+      token,
+      password: "another-long-password",
+      confirm: "another-long-password",
+    });
+    expect(again.ok).toBe(false);
+    expect(await knex("audit_log").where({ action: "user.password_reset" })).toHaveLength(1);
+  });
+
+  it("rate-limits through a counter shared in MariaDB", async () => {
+    const now = new Date();
+    for (let i = 0; i < 3; i++)
+      expect((await hit(knex, "test:bucket", 3, 60_000, now)).allowed).toBe(true);
+    const over = await hit(knex, "test:bucket", 3, 60_000, now);
+    expect(over.allowed).toBe(false);
+    expect(over.retryAfterS).toBeGreaterThan(0);
+    expect(
+      (await hit(knex, "test:bucket", 3, 60_000, new Date(now.getTime() + 61_000))).allowed,
+    ).toBe(true);
+  });
+});
