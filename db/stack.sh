@@ -64,6 +64,7 @@ case "${1:-}" in
     npx tsx db/seed.ts
     trap cleanup EXIT INT TERM
     start_background mail-fake node --import tsx mocks/mail/server.ts
+    start_background upload-fake node --import tsx mocks/uploads/server.ts
     start_background worker node --import tsx lib/worker/main.ts
     if [ "$1" = start ]; then
       log "building the app"

@@ -40,6 +40,7 @@ const baseSchema = z.object({
   STRIPE_API_PROTOCOL: z.enum(["http", "https"]).default("http"),
   UPLOADTHING_TOKEN: z.string().optional(),
   UPLOADTHING_INGEST_URL: z.url().default("http://127.0.0.1:2590"),
+  UPLOADTHING_API_URL: z.url().optional(),
 });
 
 export type Env = z.infer<typeof baseSchema>;

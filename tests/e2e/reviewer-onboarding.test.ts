@@ -8,6 +8,7 @@ import { REQUIRED_CREDENTIAL_KINDS } from "@/lib/credentials";
 import { launchBrowser } from "../support/browser";
 import { testKnex, truncateAll } from "../support/db";
 import { MAIL_FROM, mailFake } from "../support/mail";
+import { tinyPdf } from "../support/uploads";
 
 const baseUrl = inject("baseUrl");
 const shots = "tests/e2e/screenshots";
@@ -84,6 +85,19 @@ describe("a reviewer signs up, is verified by an admin, and gets the board", () 
     expect(await page.locator('[data-status="pending"]').count()).toBe(
       REQUIRED_CREDENTIAL_KINDS.length,
     );
+
+    // Upload the document behind one of them through the upload SDK (our styled file input).
+    await page
+      .locator('input[type="file"]')
+      .first()
+      .setInputFiles({
+        name: "insurance-certificate.pdf",
+        mimeType: "application/pdf",
+        buffer: tinyPdf(),
+      });
+    await page.getByText("Evidence uploaded.").waitFor();
+    await page.reload();
+    expect(await page.getByRole("link", { name: "View the uploaded document" }).count()).toBe(1);
     await page.screenshot({ path: `${shots}/reviewer-credentials.png`, fullPage: true });
     await page.goto(`${baseUrl}/dashboard`);
     expect(await page.getByRole("link", { name: "Request board" }).count()).toBe(0);
@@ -99,6 +113,14 @@ describe("a reviewer signs up, is verified by an admin, and gets the board", () 
     await admin.waitForURL("**/dashboard");
     await admin.goto(`${baseUrl}/admin/credentials?status=pending&q=Rowan`);
     await admin.screenshot({ path: `${shots}/admin-queue.png`, fullPage: true });
+    // The admin sees the evidence inline before deciding.
+    const evidenceHref = await admin
+      .getByRole("link", { name: "View evidence" })
+      .first()
+      .getAttribute("href");
+    const evidence = await admin.request.get(`${baseUrl}${evidenceHref}`);
+    expect(evidence.status()).toBe(200);
+    expect(evidence.headers()["content-type"]).toBe("application/pdf");
     expect(await admin.locator("tbody tr[data-credential]").count()).toBe(
       REQUIRED_CREDENTIAL_KINDS.length,
     );

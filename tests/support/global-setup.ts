@@ -7,11 +7,13 @@ import { spawn, type ChildProcess } from "node:child_process";
 import { existsSync } from "node:fs";
 import type { TestProject } from "vitest/node";
 import { startMailFake } from "../../mocks/mail/server";
+import { startUploadFake } from "../../mocks/uploads/server";
 
 const PORT = Number(process.env.E2E_PORT ?? 3100);
 // The test stack uses its own ports so it can run beside `npm start`.
 const MAIL_SMTP_PORT = 2526;
 const MAIL_HTTP_PORT = 2581;
+const UPLOAD_PORT = 2591;
 
 async function waitFor(url: string, ms: number): Promise<void> {
   const until = Date.now() + ms;
@@ -35,9 +37,14 @@ export default async function setup(project: TestProject) {
   });
   project.provide("mailUrl", `http://127.0.0.1:${MAIL_HTTP_PORT}`);
   project.provide("smtpPort", MAIL_SMTP_PORT);
+  const uploads = await startUploadFake({ port: UPLOAD_PORT, dir: ".data/uploads-test" });
+  project.provide("uploadUrl", `http://127.0.0.1:${UPLOAD_PORT}`);
   if (process.env.E2E_BASE_URL) {
     project.provide("baseUrl", process.env.E2E_BASE_URL);
-    return () => mail.close();
+    return async () => {
+      await mail.close();
+      await uploads.close();
+    };
   }
   if (!existsSync(".next/BUILD_ID")) {
     throw new Error("No production build: run `npx next build` first (npm test does this).");
@@ -51,6 +58,9 @@ export default async function setup(project: TestProject) {
         DB_TARGET: "test",
         DB_NAME: process.env.DB_TEST_NAME ?? "loopwright_test",
         APP_URL: `http://127.0.0.1:${PORT}`,
+        SMTP_PORT: String(MAIL_SMTP_PORT),
+        MAIL_FAKE_URL: `http://127.0.0.1:${MAIL_HTTP_PORT}`,
+        UPLOADTHING_INGEST_URL: `http://127.0.0.1:${UPLOAD_PORT}`,
         NEXT_TELEMETRY_DISABLED: "1",
       },
       stdio: ["ignore", "ignore", "inherit"],
@@ -62,6 +72,7 @@ export default async function setup(project: TestProject) {
   return async () => {
     child.kill("SIGTERM");
     await mail.close();
+    await uploads.close();
   };
 }
 
@@ -70,5 +81,6 @@ declare module "vitest" {
     baseUrl: string;
     mailUrl: string;
     smtpPort: number;
+    uploadUrl: string;
   }
 }

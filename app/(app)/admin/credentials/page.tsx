@@ -155,9 +155,18 @@ export default async function CredentialQueuePage({
                   <td className="py-3 pr-3">
                     {c.issuer}
                     <div className="font-mono text-sm">{c.number}</div>
-                    <div className="text-xs text-slate-500">
-                      {c.evidenceAttachmentId ? "evidence attached" : "no document uploaded"}
-                    </div>
+                    {c.evidenceAttachmentId ? (
+                      <a
+                        className="text-sm underline"
+                        href={`/api/files/${c.evidenceAttachmentId}`}
+                        target="_blank"
+                        rel="noreferrer"
+                      >
+                        View evidence
+                      </a>
+                    ) : (
+                      <div className="text-xs text-slate-500">no document uploaded</div>
+                    )}
                   </td>
                   <td className="py-3 pr-3">{c.expiresOn}</td>
                   <td className="py-3 pr-3">

@@ -7,6 +7,7 @@ import { Card } from "@/components/ui/card";
 import { Forbidden } from "@/components/ui/forbidden";
 import { CredentialForm } from "@/components/reviewer/credential-form";
 import { CredentialStatus } from "@/components/reviewer/credential-status";
+import { EvidenceUpload } from "@/components/uploads/evidence-upload";
 
 export const metadata: Metadata = { title: "Your credentials" };
 
@@ -53,6 +54,20 @@ export default async function CredentialsPage() {
                   <td>
                     <CredentialStatus status={c.status} />
                     {c.adminReason ? <p className="mt-1 text-sm">Reason: {c.adminReason}</p> : null}
+                    {c.evidenceAttachmentId ? (
+                      <a
+                        className="mt-1 block text-sm underline"
+                        href={`/api/files/${c.evidenceAttachmentId}`}
+                        target="_blank"
+                        rel="noreferrer"
+                      >
+                        View the uploaded document
+                      </a>
+                    ) : null}
+                    <EvidenceUpload
+                      credentialId={c.id}
+                      hasEvidence={c.evidenceAttachmentId !== null}
+                    />
                   </td>
                 </tr>
               ))}

@@ -1,0 +1,30 @@
+import { z } from "zod";
+import { requireUser } from "@/lib/server/auth/session";
+import { db } from "@/lib/server/db";
+import { errorResponse, HttpError } from "@/lib/server/errors";
+import { getReadableAttachment } from "@/lib/server/files";
+import { fetchStoredFile, uploadConfig } from "@/lib/server/uploads/config";
+
+const idSchema = z.coerce.number().int().positive();
+
+/** A private file, streamed from the upload service after the access check; never a public URL. */
+export async function GET(_req: Request, ctx: { params: Promise<{ id: string }> }) {
+  try {
+    const user = await requireUser();
+    const id = idSchema.safeParse((await ctx.params).id);
+    if (!id.success) throw new HttpError(400, "The file id must be a positive whole number.");
+    const a = await getReadableAttachment(db(), user, id.data);
+    const stored = await fetchStoredFile(`${uploadConfig().ingestUrl}/f/${a.fileKey}`);
+    if (!stored.ok || !stored.body) throw new HttpError(404, "The file is no longer stored.");
+    return new Response(stored.body, {
+      headers: {
+        "content-type": a.mimeType,
+        "content-disposition": `inline; filename="${a.fileName.replace(/[^\w.\- ]/g, "_")}"`,
+        "cache-control": "private, no-store",
+        "x-content-type-options": "nosniff",
+      },
+    });
+  } catch (err) {
+    return errorResponse(err);
+  }
+}

@@ -1,0 +1,113 @@
+import "server-only";
+import { createUploadthing, type FileRouter } from "uploadthing/next";
+import { UploadThingError } from "uploadthing/server";
+import { fileTypeFromBuffer } from "file-type";
+import { z } from "zod";
+import { getCurrentUser } from "../auth/session";
+import { db } from "../db";
+import { fetchStoredFile, utapi } from "./config";
+
+const f = createUploadthing();
+
+/** What each slug accepts, checked again by the file's own bytes when it arrives. */
+export const ALLOWED_TYPES = {
+  credentialEvidence: ["application/pdf", "image/jpeg", "image/png", "image/webp"],
+  sketch: ["application/pdf", "image/jpeg", "image/png", "image/webp"],
+  photo: ["image/jpeg", "image/png", "image/webp"],
+} as const;
+
+type Slug = keyof typeof ALLOWED_TYPES;
+
+export type UploadResult = { ok: true; attachmentId: number } | { ok: false; error: string };
+
+/**
+ * Called when the upload service confirms a file: read its first bytes, refuse a type that
+ * does not match the slug (and delete the file, so nothing is half stored), else record it.
+ */
+async function recordUpload(
+  slug: Slug,
+  file: { key: string; name: string; size: number; ufsUrl: string },
+  write: (mime: string) => Promise<number>,
+): Promise<UploadResult> {
+  const head = await fetchStoredFile(file.ufsUrl, 4100);
+  const detected = head.ok
+    ? await fileTypeFromBuffer(new Uint8Array(await head.arrayBuffer()))
+    : undefined;
+  if (!detected || !(ALLOWED_TYPES[slug] as readonly string[]).includes(detected.mime)) {
+    await utapi().deleteFiles(file.key);
+    return {
+      ok: false,
+      error: `“${file.name}” is not a ${slug === "photo" ? "JPEG, PNG or WebP image" : "PDF or an image"} (by its content), so it was not kept.`,
+    };
+  }
+  return { ok: true, attachmentId: await write(detected.mime) };
+}
+
+async function signedIn() {
+  const user = await getCurrentUser();
+  if (!user) throw new UploadThingError({ code: "FORBIDDEN", message: "Sign in to upload files." });
+  return user;
+}
+
+export const fileRouter = {
+  credentialEvidence: f({
+    pdf: { maxFileSize: "8MB", maxFileCount: 1 },
+    image: { maxFileSize: "8MB", maxFileCount: 1 },
+  })
+    .input(z.object({ credentialId: z.number().int().positive() }))
+    .middleware(async ({ input }) => {
+      const user = await signedIn();
+      if (user.role !== "reviewer")
+        throw new UploadThingError({
+          code: "FORBIDDEN",
+          message: "Only reviewers upload credential evidence.",
+        });
+      const credential = await db()("credentials")
+        .where({ id: input.credentialId })
+        .first("reviewer_id");
+      if (!credential || Number(credential.reviewer_id) !== user.id)
+        throw new UploadThingError({ code: "FORBIDDEN", message: "That credential is not yours." });
+      return { userId: user.id, credentialId: input.credentialId };
+    })
+    .onUploadComplete(({ metadata, file }) =>
+      recordUpload("credentialEvidence", file, (mime) =>
+        db().transaction(async (trx) => {
+          const [id] = await trx("attachments").insert({
+            owner_id: metadata.userId,
+            purpose: "credential_evidence",
+            file_key: file.key,
+            file_name: file.name.slice(0, 255),
+            mime_type: mime,
+            size_bytes: file.size,
+          });
+          const old = await trx("credentials")
+            .where({ id: metadata.credentialId })
+            .first("evidence_attachment_id", "status");
+          // New evidence sends a rejected credential back to the queue.
+          await trx("credentials")
+            .where({ id: metadata.credentialId })
+            .update({
+              evidence_attachment_id: id,
+              ...(old?.status === "rejected" ? { status: "pending", admin_reason: null } : {}),
+            });
+          if (old?.evidence_attachment_id)
+            await trx("attachments")
+              .where({ id: old.evidence_attachment_id })
+              .update({ deleted_at: trx.raw("CURRENT_TIMESTAMP(3)") });
+          await trx("audit_log").insert({
+            actor_id: metadata.userId,
+            action: "credential.evidence_uploaded",
+            entity_type: "reviewer",
+            entity_id: metadata.userId,
+            detail: JSON.stringify({
+              credentialId: metadata.credentialId,
+              attachmentId: Number(id),
+            }),
+          });
+          return Number(id);
+        }),
+      ),
+    ),
+} satisfies FileRouter;
+
+export type LoopwrightFileRouter = typeof fileRouter;
