@@ -78,8 +78,8 @@ export default async function CredentialsPage() {
       <Card>
         <h2 className="mb-3 text-xl font-bold">Add a credential</h2>
         <p className="mb-3 text-sm text-slate-600">
-          Uploading the certificate or policy document arrives with file uploads; until then the
-          admin checks the number with the issuer.
+          After adding it, upload the certificate or policy document beside it above. The admin
+          checks it against the issuer&apos;s register before verifying.
         </p>
         <CredentialForm />
       </Card>
