@@ -5,5 +5,12 @@ import { env } from "@/lib/env";
 export default withAuth({ pages: { signIn: "/sign-in" }, secret: env().NEXTAUTH_SECRET });
 
 export const config = {
-  matcher: ["/dashboard/:path*", "/settings/:path*", "/reviewer/:path*", "/admin/:path*"],
+  matcher: [
+    "/dashboard/:path*",
+    "/projects/:path*",
+    "/board/:path*",
+    "/settings/:path*",
+    "/reviewer/:path*",
+    "/admin/:path*",
+  ],
 };

@@ -13,6 +13,7 @@ export function navFor(user: CurrentUser, reviewerVerified: boolean): NavItem[] 
   if (user.role === "homeowner")
     return [
       ...common,
+      { href: "/projects/new", label: "New project" },
       { href: "/loop-check", label: "Loop check" },
       { href: "/settings/notifications", label: "E-mail settings" },
     ];

@@ -48,14 +48,17 @@ async function HomeownerPanel({ userId }: { userId: number }) {
       <h2 className="text-xl font-bold">Your projects</h2>
       {projects.length === 0 ? (
         <p className="mt-2 text-slate-700">
-          No projects yet. Start with the free loop check while project pages are on their way.
+          No projects yet. Start one to describe your system step by step, upload a sketch and
+          photos, and ask for a review.
         </p>
       ) : (
         <ul className="mt-3 divide-y divide-slate-100">
           {projects.map((p) => (
             <li key={p.id} className="flex flex-wrap items-center gap-3 py-3">
               {p.worstLevel ? <LevelBadge level={p.worstLevel} /> : null}
-              <span className="flex-1 font-semibold">{p.title}</span>
+              <Link href={`/projects/${p.id}`} className="flex-1 font-semibold underline">
+                {p.title}
+              </Link>
               <span className="text-sm text-slate-600">
                 {p.status}
                 {p.openRequests ? ` · ${p.openRequests} open request(s)` : ""}
@@ -65,9 +68,12 @@ async function HomeownerPanel({ userId }: { userId: number }) {
         </ul>
       )}
       <div className="mt-4">
-        <ButtonLink href="/loop-check" variant="secondary">
-          Run a loop check
-        </ButtonLink>
+        <div className="flex flex-wrap gap-3">
+          <ButtonLink href="/projects/new">New project</ButtonLink>
+          <ButtonLink href="/loop-check" variant="secondary">
+            Try the loop check
+          </ButtonLink>
+        </div>
       </div>
     </Card>
   );

@@ -6,6 +6,7 @@ import { z } from "zod";
 import { getCurrentUser } from "../auth/session";
 import { db } from "../db";
 import { fetchStoredFile, utapi } from "./config";
+import { PHOTO_TAGS } from "@/lib/validation/request";
 
 const f = createUploadthing();
 
@@ -108,6 +109,84 @@ export const fileRouter = {
         }),
       ),
     ),
+  sketch: f({
+    pdf: { maxFileSize: "16MB", maxFileCount: 1 },
+    image: { maxFileSize: "16MB", maxFileCount: 1 },
+  })
+    .input(z.object({ projectId: z.number().int().positive() }))
+    .middleware(async ({ input }) => ({
+      ...(await ownProject(input.projectId, "sketch")),
+      caption: null,
+      tag: null,
+    }))
+    .onUploadComplete(({ metadata, file }) =>
+      recordUpload("sketch", file, (mime) => insertProjectFile(metadata, "sketch", file, mime)),
+    ),
+  photo: f({ image: { maxFileSize: "16MB", maxFileCount: 1 } })
+    .input(
+      z.object({
+        projectId: z.number().int().positive(),
+        caption: z.string().trim().max(200).optional(),
+        tag: z.enum(PHOTO_TAGS).default("other"),
+      }),
+    )
+    .middleware(async ({ input }) => ({
+      ...(await ownProject(input.projectId, "photo")),
+      caption: input.caption || null,
+      tag: input.tag,
+    }))
+    .onUploadComplete(({ metadata, file }) =>
+      recordUpload("photo", file, (mime) => insertProjectFile(metadata, "photo", file, mime)),
+    ),
 } satisfies FileRouter;
+
+/** At most this many live files of each kind per project. */
+export const PROJECT_FILE_LIMITS = { sketch: 3, photo: 20 } as const;
+
+async function ownProject(projectId: number, purpose: "sketch" | "photo") {
+  const user = await signedIn();
+  if (user.role !== "homeowner")
+    throw new UploadThingError({
+      code: "FORBIDDEN",
+      message: "Only the project's owner can add files to it.",
+    });
+  const project = await db()("projects")
+    .where({ id: projectId })
+    .whereNull("deleted_at")
+    .first("owner_id");
+  if (!project || Number(project.owner_id) !== user.id)
+    throw new UploadThingError({ code: "FORBIDDEN", message: "That project is not yours." });
+  const [{ n }] = (await db()("attachments")
+    .where({ project_id: projectId, purpose })
+    .whereNull("deleted_at")
+    .count({ n: "*" })) as [{ n: number }];
+  if (Number(n) >= PROJECT_FILE_LIMITS[purpose]) {
+    throw new UploadThingError({
+      code: "BAD_REQUEST",
+      message: `A project can have at most ${PROJECT_FILE_LIMITS[purpose]} ${purpose === "photo" ? "photos" : "sketches"}: delete one first.`,
+    });
+  }
+  return { userId: user.id, projectId };
+}
+
+async function insertProjectFile(
+  meta: { userId: number; projectId: number; caption: string | null; tag: string | null },
+  purpose: "sketch" | "photo",
+  file: { key: string; name: string; size: number },
+  mime: string,
+) {
+  const [id] = await db()("attachments").insert({
+    owner_id: meta.userId,
+    project_id: meta.projectId,
+    purpose,
+    file_key: file.key,
+    file_name: file.name.slice(0, 255),
+    mime_type: mime,
+    size_bytes: file.size,
+    caption: meta.caption,
+    tag: meta.tag,
+  });
+  return Number(id);
+}
 
 export type LoopwrightFileRouter = typeof fileRouter;

@@ -1,0 +1,122 @@
+import type { Metadata } from "next";
+import Link from "next/link";
+import { notFound } from "next/navigation";
+import { pageUser } from "@/lib/server/auth/session";
+import { db } from "@/lib/server/db";
+import { HttpError } from "@/lib/server/errors";
+import { getOwnProject, listProjectFiles, listProjectRequests } from "@/lib/server/projects";
+import { runLoopCheck } from "@/lib/calc/loop-check";
+import { systemSchema } from "@/lib/validation/system";
+import { formatMoney } from "@/lib/money";
+import { SECTIONS } from "@/components/loop-check/system-fields";
+import { LoopCheckResults } from "@/components/loop-check/loop-check-results";
+import { Card } from "@/components/ui/card";
+import { Button, ButtonLink } from "@/components/ui/button";
+import { Forbidden } from "@/components/ui/forbidden";
+import { Cautions } from "@/components/ui/caution";
+import { ProjectFiles } from "@/components/projects/project-files";
+import { RequestForm } from "@/components/projects/request-form";
+import { withdrawRequest } from "@/components/projects/actions";
+
+export const metadata: Metadata = { title: "Project" };
+
+export default async function ProjectPage({ params }: { params: Promise<{ id: string }> }) {
+  const { id } = await params;
+  const user = await pageUser(`/projects/${id}`, ["homeowner", "admin"]);
+  if (!user) return <Forbidden />;
+  if (!/^\d+$/.test(id)) notFound();
+  const project = await getOwnProject(db(), user, Number(id)).catch((err: unknown) => {
+    if (err instanceof HttpError && err.status === 404) notFound();
+    throw err;
+  });
+  const [files, requests] = await Promise.all([
+    listProjectFiles(db(), user, project.id),
+    listProjectRequests(db(), user, project.id),
+  ]);
+  const result = runLoopCheck(project.system);
+  const complete = systemSchema.safeParse(project.system).success;
+  const missing = SECTIONS.filter((s) => !(s.id in project.system));
+  const open = requests.find((r) => r.status === "open");
+  return (
+    <div className="space-y-6">
+      <header className="flex flex-wrap items-center justify-between gap-3">
+        <h1 className="text-3xl font-bold">{project.title}</h1>
+        <ButtonLink
+          variant="secondary"
+          href={`/projects/${project.id}/edit/${missing[0]?.id ?? "site"}`}
+        >
+          {complete ? "Edit the description" : "Continue the description"}
+        </ButtonLink>
+      </header>
+      {!complete ? (
+        <p role="status" className="rounded-card border border-level-note bg-level-note-bg p-4">
+          Still to fill in:{" "}
+          {missing.map((s) => s.title).join(", ") || "some values in the steps marked below"}. The
+          loop check below uses what you have saved.
+        </p>
+      ) : null}
+
+      <Card>
+        <h2 className="mb-3 text-xl font-bold">Sketch and photos</h2>
+        <p className="mb-3 text-sm text-slate-600">
+          Only you, our admins and the reviewers you ask can see these.
+        </p>
+        <ProjectFiles projectId={project.id} files={files} />
+      </Card>
+
+      <Card>
+        <h2 className="mb-3 text-xl font-bold">Review requests</h2>
+        {requests.length ? (
+          <ul className="mb-4 divide-y divide-slate-100">
+            {requests.map((r) => (
+              <li
+                key={r.id}
+                className="flex flex-wrap items-center gap-3 py-3"
+                data-request={r.status}
+              >
+                <span className="font-semibold">
+                  {r.kind === "site_visit" ? "Site visit" : "Remote design check"}
+                </span>
+                <span>
+                  {formatMoney(r.budgetMinMinor, r.currency)}–
+                  {formatMoney(r.budgetMaxMinor, r.currency)}
+                </span>
+                <span className="rounded-full bg-slate-100 px-2 py-0.5 text-sm">{r.status}</span>
+                <span className="text-sm text-slate-600">
+                  {r.status === "open"
+                    ? `open until ${r.expiresAt.slice(0, 10)}`
+                    : `posted ${r.createdAt.slice(0, 10)}`}
+                </span>
+                {r.status === "open" ? (
+                  <form action={withdrawRequest.bind(null, project.id, r.id)}>
+                    <Button type="submit" variant="ghost" className="min-h-11">
+                      Cancel request
+                    </Button>
+                  </form>
+                ) : null}
+              </li>
+            ))}
+          </ul>
+        ) : null}
+        {open ? (
+          <p role="status" className="rounded-lg bg-level-ok-bg p-3 text-level-ok">
+            Your request is on the board. Verified reviewers can now quote; you will get an e-mail
+            for each quote.
+          </p>
+        ) : complete ? (
+          <RequestForm projectId={project.id} />
+        ) : (
+          <p>Finish the description to ask for a review.</p>
+        )}
+      </Card>
+
+      <Cautions compact />
+      <LoopCheckResults result={result} />
+      <p className="text-sm">
+        <Link className="underline" href="/dashboard">
+          Back to the dashboard
+        </Link>
+      </p>
+    </div>
+  );
+}

@@ -1,0 +1,113 @@
+"use server";
+
+import { revalidatePath } from "next/cache";
+import { redirect } from "next/navigation";
+import { HttpError } from "@/lib/server/errors";
+import { getCurrentUser } from "@/lib/server/auth/session";
+import { db } from "@/lib/server/db";
+import {
+  cancelRequest,
+  createProject,
+  createRequest,
+  deleteProject,
+  removeProjectFile,
+  saveProjectSection,
+} from "@/lib/server/projects";
+import { utapi } from "@/lib/server/uploads/config";
+import { systemSections, type SystemSection } from "@/lib/validation/system";
+import type { RequestInput } from "@/lib/validation/request";
+
+export interface ProjectActionState {
+  ok: boolean;
+  message?: string;
+  fieldErrors?: Record<string, string[]>;
+  values?: Record<string, string>;
+}
+
+async function actor() {
+  const user = await getCurrentUser();
+  if (!user) redirect("/sign-in");
+  return user;
+}
+
+function failure(err: unknown, values?: Record<string, string>): ProjectActionState {
+  if (err instanceof HttpError)
+    return { ok: false, message: err.message, fieldErrors: err.fieldErrors, values };
+  console.error(err);
+  return {
+    ok: false,
+    message: "Something went wrong on our side; what you typed is still here. Please try again.",
+    values,
+  };
+}
+
+export async function startProject(
+  _prev: ProjectActionState,
+  formData: FormData,
+): Promise<ProjectActionState> {
+  const user = await actor();
+  const title = String(formData.get("title") ?? "");
+  let id: number;
+  try {
+    id = await createProject(db(), user, { title });
+  } catch (err) {
+    return failure(err, { title });
+  }
+  redirect(`/projects/${id}/edit/site`);
+}
+
+/** Save one step; on success the client moves to the next one. */
+export async function saveStep(
+  projectId: number,
+  step: string,
+  value: unknown,
+): Promise<ProjectActionState> {
+  const user = await actor();
+  if (!(systemSections as readonly string[]).includes(step))
+    return { ok: false, message: "Unknown step." };
+  try {
+    await saveProjectSection(db(), user, projectId, step as SystemSection, value);
+  } catch (err) {
+    return failure(err);
+  }
+  revalidatePath(`/projects/${projectId}`);
+  return { ok: true, message: "Saved." };
+}
+
+export async function postRequest(
+  projectId: number,
+  _prev: ProjectActionState,
+  formData: FormData,
+): Promise<ProjectActionState> {
+  const user = await actor();
+  const values = Object.fromEntries(
+    [...formData.entries()].filter(([k]) => !k.startsWith("$")).map(([k, v]) => [k, String(v)]),
+  );
+  try {
+    await createRequest(db(), user, projectId, values as unknown as RequestInput);
+  } catch (err) {
+    return failure(err, values);
+  }
+  revalidatePath(`/projects/${projectId}`);
+  return { ok: true, message: "Your request is on the board. Verified reviewers can now quote." };
+}
+
+export async function withdrawRequest(projectId: number, requestId: number): Promise<void> {
+  const user = await actor();
+  await cancelRequest(db(), user, requestId);
+  revalidatePath(`/projects/${projectId}`);
+}
+
+export async function deleteFile(projectId: number, attachmentId: number): Promise<void> {
+  const user = await actor();
+  const key = await removeProjectFile(db(), user, attachmentId);
+  await utapi().deleteFiles(key);
+  revalidatePath(`/projects/${projectId}`);
+}
+
+export async function removeProject(projectId: number): Promise<void> {
+  const user = await actor();
+  const keys = await deleteProject(db(), user, projectId);
+  if (keys.length) await utapi().deleteFiles(keys);
+  redirect("/dashboard");
+}

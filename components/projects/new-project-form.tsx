@@ -1,0 +1,29 @@
+"use client";
+
+import { useActionState } from "react";
+import { Button } from "@/components/ui/button";
+import { FormField } from "@/components/ui/form-field";
+import { startProject, type ProjectActionState } from "./actions";
+
+export function NewProjectForm() {
+  const [state, action, pending] = useActionState<ProjectActionState, FormData>(startProject, {
+    ok: false,
+  });
+  return (
+    <form action={action} className="space-y-3" aria-label="New project">
+      <FormField
+        name="title"
+        label="Project name"
+        placeholder="e.g. Our house, roof collectors"
+        defaultValue={state.values?.title ?? ""}
+        errors={state.fieldErrors}
+      />
+      <p aria-live="polite" className="text-sm text-level-stop">
+        {state.ok ? "" : (state.message ?? "")}
+      </p>
+      <Button type="submit" disabled={pending}>
+        {pending ? "Creating…" : "Start describing the system"}
+      </Button>
+    </form>
+  );
+}

@@ -1,0 +1,120 @@
+"use client";
+
+import { useActionState, useState } from "react";
+import { Button } from "@/components/ui/button";
+import { Field, inputClass } from "@/components/ui/field";
+import { FormField } from "@/components/ui/form-field";
+import { postRequest, type ProjectActionState } from "./actions";
+
+export function RequestForm({ projectId }: { projectId: number }) {
+  const [state, action, pending] = useActionState<ProjectActionState, FormData>(
+    postRequest.bind(null, projectId),
+    { ok: false },
+  );
+  const v = state.ok ? undefined : state.values;
+  const [kind, setKind] = useState(v?.kind ?? "remote_check");
+  const e = state.fieldErrors;
+  if (state.ok)
+    return (
+      <p role="status" className="rounded-lg bg-level-ok-bg p-4 text-level-ok">
+        {state.message}
+      </p>
+    );
+  return (
+    <form action={action} className="space-y-3" aria-label="Ask for a review">
+      <fieldset>
+        <legend className="text-sm font-semibold">Kind of review</legend>
+        <div className="mt-2 flex flex-wrap gap-4">
+          {[
+            ["remote_check", "Remote design check (sketch and photos)"],
+            ["site_visit", "Site visit"],
+          ].map(([value, label]) => (
+            <label key={value} className="flex min-h-11 items-center gap-2">
+              <input
+                type="radio"
+                name="kind"
+                value={value}
+                checked={kind === value}
+                onChange={() => setKind(value!)}
+                className="h-5 w-5 accent-copper-600"
+              />{" "}
+              {label}
+            </label>
+          ))}
+        </div>
+      </fieldset>
+      <Field
+        id="f-questions"
+        label="What do you want the reviewer to answer?"
+        error={e?.questions?.[0]}
+      >
+        <textarea
+          id="f-questions"
+          name="questions"
+          rows={4}
+          className={inputClass}
+          defaultValue={v?.questions ?? ""}
+          aria-describedby="f-questions-error"
+        />
+      </Field>
+      <div className="grid gap-x-4 sm:grid-cols-2">
+        <FormField
+          name="budgetMinPounds"
+          label="Budget from"
+          unit="£"
+          type="number"
+          min={1}
+          defaultValue={v?.budgetMinPounds ?? ""}
+          errors={e}
+        />
+        <FormField
+          name="budgetMaxPounds"
+          label="Budget up to"
+          unit="£"
+          type="number"
+          min={1}
+          defaultValue={v?.budgetMaxPounds ?? ""}
+          errors={e}
+        />
+      </div>
+      {kind === "site_visit" ? (
+        <div className="grid gap-x-4 sm:grid-cols-2">
+          <FormField
+            name="windowStart"
+            label="Visit window from"
+            type="date"
+            defaultValue={v?.windowStart ?? ""}
+            errors={e}
+          />
+          <FormField
+            name="windowEnd"
+            label="Visit window to"
+            type="date"
+            defaultValue={v?.windowEnd ?? ""}
+            errors={e}
+          />
+          <Field
+            id="f-accessNotes"
+            label="Access notes (loft hatch, scaffold, parking)"
+            error={e?.accessNotes?.[0]}
+            className="sm:col-span-2"
+          >
+            <textarea
+              id="f-accessNotes"
+              name="accessNotes"
+              rows={2}
+              className={inputClass}
+              defaultValue={v?.accessNotes ?? ""}
+            />
+          </Field>
+        </div>
+      ) : null}
+      <p aria-live="polite" className="text-sm font-medium text-level-stop">
+        {state.message ?? ""}
+      </p>
+      <Button type="submit" disabled={pending}>
+        {pending ? "Posting…" : "Post the request"}
+      </Button>
+    </form>
+  );
+}

@@ -1,0 +1,63 @@
+"use client";
+
+import { useState } from "react";
+import { useRouter } from "next/navigation";
+import { useForm } from "react-hook-form";
+import type { SystemInput } from "@/lib/validation/system";
+import { Button } from "@/components/ui/button";
+import { SectionFields } from "@/components/loop-check/section-fields";
+import { SECTIONS } from "@/components/loop-check/system-fields";
+import { saveStep } from "./actions";
+
+export interface StepFormProps {
+  projectId: number;
+  step: (typeof SECTIONS)[number]["id"];
+  defaultValues: SystemInput;
+}
+
+/** One step of the stepped description form; saves the step as a draft and moves on. */
+export function StepForm({ projectId, step, defaultValues }: StepFormProps) {
+  const router = useRouter();
+  const [message, setMessage] = useState<string | null>(null);
+  const form = useForm<SystemInput>({ defaultValues });
+  const index = SECTIONS.findIndex((s) => s.id === step);
+  const section = SECTIONS[index]!;
+  const next = SECTIONS[index + 1];
+
+  const onSubmit = async (values: SystemInput) => {
+    setMessage(null);
+    const r = await saveStep(projectId, step, values[step]);
+    if (!r.ok) {
+      for (const [path, messages] of Object.entries(r.fieldErrors ?? {})) {
+        form.setError(path as Parameters<typeof form.setError>[0], { message: messages[0] });
+      }
+      setMessage(r.message ?? "Some values need attention.");
+      return;
+    }
+    router.push(next ? `/projects/${projectId}/edit/${next.id}` : `/projects/${projectId}`);
+    router.refresh();
+  };
+
+  return (
+    <form
+      onSubmit={form.handleSubmit(onSubmit)}
+      noValidate
+      className="space-y-4"
+      aria-label={section.title}
+    >
+      <SectionFields form={form} section={section} />
+      <p role="alert" aria-live="polite" className="font-semibold text-level-stop">
+        {message ?? ""}
+      </p>
+      <div className="flex flex-wrap gap-3">
+        <Button type="submit" disabled={form.formState.isSubmitting}>
+          {form.formState.isSubmitting
+            ? "Saving…"
+            : next
+              ? `Save and continue to ${next.title.toLowerCase()}`
+              : "Save and see the loop check"}
+        </Button>
+      </div>
+    </form>
+  );
+}
