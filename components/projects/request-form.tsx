@@ -34,7 +34,7 @@ export function RequestForm({ projectId }: { projectId: number }) {
                 type="radio"
                 name="kind"
                 value={value}
-                checked={kind === value}
+                defaultChecked={kind === value}
                 onChange={() => setKind(value!)}
                 className="h-5 w-5 accent-copper-600"
               />{" "}

@@ -6,6 +6,7 @@ import { launchBrowser } from "../support/browser";
 import { testKnex, truncateAll } from "../support/db";
 import { signInHttp } from "../support/session";
 import { elfBytes, tinyPdf, tinyPng } from "../support/uploads";
+import { LOCAL_UPLOAD_KEYS } from "@/lib/uploads/config";
 
 const baseUrl = inject("baseUrl");
 const shots = "tests/e2e/screenshots";
@@ -83,7 +84,9 @@ describe("a homeowner goes from an empty account to an open request with a sketc
     await save(page, new RegExp(`/projects/${projectId}$`));
 
     // Drafts were saved step by step.
-    const stored = await knex("projects").where({ id: projectId }).first("system", "status", "region", "collector_type", "worst_level");
+    const stored = await knex("projects")
+      .where({ id: projectId })
+      .first("system", "status", "region", "collector_type", "worst_level");
     expect(stored.status).toBe("ready");
     expect(stored.region).toBe("south-west");
     expect(stored.collector_type).toBe("flat_plate");
@@ -93,23 +96,33 @@ describe("a homeowner goes from an empty account to an open request with a sketc
     expect(await vessel.getAttribute("data-level")).toBe("fix");
 
     // Sketch and two photos; a renamed executable is refused with a clear message.
-    await page.locator("#sketch-file").setInputFiles({ name: "loop-sketch.pdf", mimeType: "application/pdf", buffer: tinyPdf() });
+    await page
+      .locator("#sketch-file")
+      .setInputFiles({ name: "loop-sketch.pdf", mimeType: "application/pdf", buffer: tinyPdf() });
     await page.getByText("Uploaded.").waitFor();
     await page.getByLabel("Photo caption").fill("Collectors on the south-west roof");
-    await page.locator("#photo-file").setInputFiles({ name: "roof.png", mimeType: "image/png", buffer: tinyPng() });
+    await page
+      .locator("#photo-file")
+      .setInputFiles({ name: "roof.png", mimeType: "image/png", buffer: tinyPng() });
     await page.waitForFunction(() => document.querySelectorAll('[data-file="photo"]').length === 1);
     await page.getByLabel("Shows").selectOption("vessel");
     await page.getByLabel("Photo caption").fill("Vessel below the pump station");
-    await page.locator("#photo-file").setInputFiles({ name: "vessel.png", mimeType: "image/png", buffer: tinyPng() });
+    await page
+      .locator("#photo-file")
+      .setInputFiles({ name: "vessel.png", mimeType: "image/png", buffer: tinyPng() });
     await page.waitForFunction(() => document.querySelectorAll('[data-file="photo"]').length === 2);
-    await page.locator("#photo-file").setInputFiles({ name: "not-a-photo.png", mimeType: "image/png", buffer: elfBytes() });
+    await page
+      .locator("#photo-file")
+      .setInputFiles({ name: "not-a-photo.png", mimeType: "image/png", buffer: elfBytes() });
     await page.getByText(/is not a JPEG, PNG or WebP image/).waitFor();
     expect(await page.locator('[data-file="sketch"]').count()).toBe(1);
     expect(await page.locator('[data-file="photo"]').count()).toBe(2);
 
     // Post a request (a site visit needs its window).
     await page.getByLabel("Site visit").check();
-    await page.getByLabel("What do you want the reviewer to answer?").fill("Is the vessel large enough for steam, and is the pre-charge right?");
+    await page
+      .getByLabel("What do you want the reviewer to answer?")
+      .fill("Is the vessel large enough for steam, and is the pre-charge right?");
     await page.getByLabel("Budget from").fill("80");
     await page.getByLabel("Budget up to").fill("150");
     await page.getByRole("button", { name: "Post the request" }).click();
@@ -123,19 +136,70 @@ describe("a homeowner goes from an empty account to an open request with a sketc
     await page.reload();
     await page.getByText("Your request is on the board").waitFor();
     expect(await page.locator('[data-request="open"]').count()).toBe(1);
+    const posted = await knex("requests")
+      .where({ project_id: projectId })
+      .first(
+        "kind",
+        "window_start",
+        "window_end",
+        "budget_min_minor",
+        "budget_max_minor",
+        "region",
+        "status",
+      );
+    expect(posted).toMatchObject({
+      kind: "site_visit",
+      window_start: soon,
+      window_end: later,
+      budget_min_minor: 8000,
+      budget_max_minor: 15000,
+      region: "south-west",
+      status: "open",
+    });
     await page.screenshot({ path: `${shots}/homeowner-project.png`, fullPage: true });
 
     // Files are private: another homeowner gets 403, a verified reviewer may look while the request is open.
-    const photoId = (await knex("attachments").where({ project_id: projectId, purpose: "photo" }).first("id")).id;
+    const photoId = (
+      await knex("attachments").where({ project_id: projectId, purpose: "photo" }).first("id")
+    ).id;
     const other = await signInHttp(baseUrl, DEMO_USERS.homeowners[1].email, DEMO_PASSWORD);
-    expect((await fetch(`${baseUrl}/api/files/${photoId}`, { headers: { cookie: other.cookie } })).status).toBe(403);
+    expect(
+      (await fetch(`${baseUrl}/api/files/${photoId}`, { headers: { cookie: other.cookie } }))
+        .status,
+    ).toBe(403);
     const verified = await signInHttp(baseUrl, DEMO_USERS.reviewers[0].email, DEMO_PASSWORD);
-    expect((await fetch(`${baseUrl}/api/files/${photoId}`, { headers: { cookie: verified.cookie } })).status).toBe(200);
+    expect(
+      (await fetch(`${baseUrl}/api/files/${photoId}`, { headers: { cookie: verified.cookie } }))
+        .status,
+    ).toBe(200);
     const pending = await signInHttp(baseUrl, DEMO_USERS.reviewers[2].email, DEMO_PASSWORD);
-    expect((await fetch(`${baseUrl}/api/files/${photoId}`, { headers: { cookie: pending.cookie } })).status).toBe(403);
+    expect(
+      (await fetch(`${baseUrl}/api/files/${photoId}`, { headers: { cookie: pending.cookie } }))
+        .status,
+    ).toBe(403);
     // Another homeowner cannot open the project page either.
-    const page2 = await fetch(`${baseUrl}/projects/${projectId}`, { headers: { cookie: other.cookie } });
+    const page2 = await fetch(`${baseUrl}/projects/${projectId}`, {
+      headers: { cookie: other.cookie },
+    });
     expect(page2.status).toBe(404);
+
+    // Deleting the project deletes its files from the upload store too.
+    const keys = (
+      await knex("attachments").where({ project_id: projectId }).select("file_key")
+    ).map((r) => r.file_key as string);
+    expect(keys).toHaveLength(3);
+    page.once("dialog", (d) => void d.accept());
+    await page.getByRole("button", { name: "Delete this project" }).click();
+    await page.waitForURL("**/dashboard");
+    const listed = await fetch(`${inject("uploadUrl")}/v6/listFiles`, {
+      method: "POST",
+      headers: { "x-uploadthing-api-key": LOCAL_UPLOAD_KEYS.apiKey },
+      body: "{}",
+    });
+    const stillStored = ((await listed.json()) as { files: { key: string }[] }).files.map(
+      (f) => f.key,
+    );
+    for (const k of keys) expect(stillStored).not.toContain(k);
     await context.close();
   }, 120_000);
 });

@@ -87,14 +87,11 @@ describe("a reviewer signs up, is verified by an admin, and gets the board", () 
     );
 
     // Upload the document behind one of them through the upload SDK (our styled file input).
-    await page
-      .locator('input[type="file"]')
-      .first()
-      .setInputFiles({
-        name: "insurance-certificate.pdf",
-        mimeType: "application/pdf",
-        buffer: tinyPdf(),
-      });
+    await page.locator('input[type="file"]').first().setInputFiles({
+      name: "insurance-certificate.pdf",
+      mimeType: "application/pdf",
+      buffer: tinyPdf(),
+    });
     await page.getByText("Evidence uploaded.").waitFor();
     await page.reload();
     expect(await page.getByRole("link", { name: "View the uploaded document" }).count()).toBe(1);

@@ -17,6 +17,7 @@ import { Cautions } from "@/components/ui/caution";
 import { ProjectFiles } from "@/components/projects/project-files";
 import { RequestForm } from "@/components/projects/request-form";
 import { withdrawRequest } from "@/components/projects/actions";
+import { DeleteProjectButton } from "@/components/projects/delete-project-button";
 
 export const metadata: Metadata = { title: "Project" };
 
@@ -112,11 +113,12 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
 
       <Cautions compact />
       <LoopCheckResults result={result} />
-      <p className="text-sm">
+      <div className="flex flex-wrap items-center justify-between gap-3 text-sm">
         <Link className="underline" href="/dashboard">
           Back to the dashboard
         </Link>
-      </p>
+        <DeleteProjectButton projectId={project.id} />
+      </div>
     </div>
   );
 }
