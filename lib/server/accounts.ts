@@ -29,6 +29,22 @@ function passwordProblems(password: string): string[] {
     : [];
 }
 
+/** A fresh single-use verification link, e-mailed in the caller's transaction. */
+async function queueVerification(
+  trx: Knex.Transaction,
+  user: { id: number; email: string; name: string },
+  appUrl: string,
+  dedupeKey?: string,
+) {
+  const token = await issueToken(trx, user.id, "verify_email");
+  await enqueueEmail(trx, {
+    to: { address: user.email, userId: user.id },
+    template: "verify_email",
+    payload: { name: user.name, url: `${appUrl}/verify-email?token=${token}` },
+    dedupeKey,
+  });
+}
+
 /** Sign-up: the account, and the verification e-mail in the same transaction. */
 export async function createAccount(
   knex: Knex,
@@ -62,12 +78,7 @@ export async function createAccount(
         display_name: v.displayName,
       });
       const userId = Number(id);
-      const token = await issueToken(trx, userId, "verify_email");
-      await enqueueEmail(trx, {
-        to: { address: v.email, userId },
-        template: "verify_email",
-        payload: { name: v.displayName, url: `${appUrl}/verify-email?token=${token}` },
-      });
+      await queueVerification(trx, { id: userId, email: v.email, name: v.displayName }, appUrl);
       await trx("audit_log").insert({
         actor_id: userId,
         action: "user.signed_up",
@@ -199,12 +210,12 @@ export async function resendVerification(
       .forUpdate()
       .first("id", "email", "display_name", "email_verified_at");
     if (!user || user.email_verified_at) return;
-    const token = await issueToken(trx, userId, "verify_email");
-    await enqueueEmail(trx, {
-      to: { address: user.email, userId },
-      template: "verify_email",
-      payload: { name: user.display_name, url: `${appUrl}/verify-email?token=${token}` },
-      dedupeKey: `verify-${userId}-${new Date().toISOString().slice(0, 16)}`,
-    });
+    await queueVerification(
+      trx,
+      { id: userId, email: user.email, name: user.display_name },
+      appUrl,
+      // At most one resend a minute, however often the button is pressed.
+      `verify-${userId}-${new Date().toISOString().slice(0, 16)}`,
+    );
   });
 }

@@ -3,13 +3,7 @@ import type { Knex } from "knex";
 import { z } from "zod";
 import {
   collectorArraySchema,
-  cylinderSchema,
-  designSchema,
-  expansionVesselSchema,
-  fluidSchema,
-  pipeRunSchema,
-  pumpStationSchema,
-  safetySchema,
+  sectionSchemas,
   siteSchema,
   systemSchema,
   type SystemDraft,
@@ -20,18 +14,6 @@ import { runLoopCheck } from "@/lib/calc/loop-check";
 import { env } from "@/lib/env";
 import { forbidden, notFound, conflict, unprocessable } from "./errors";
 import type { Actor } from "./reviewers";
-
-const SECTION_SCHEMAS: Record<SystemSection, z.ZodType> = {
-  site: siteSchema,
-  collectors: collectorArraySchema,
-  pipeRuns: z.array(pipeRunSchema).min(1, "Add at least one pipe run").max(30),
-  pumpStation: pumpStationSchema,
-  expansionVessel: expansionVesselSchema,
-  fluid: fluidSchema,
-  cylinder: cylinderSchema,
-  safety: safetySchema,
-  design: designSchema,
-};
 
 const sqlNow = (offsetMs = 0) =>
   new Date(Date.now() + offsetMs).toISOString().slice(0, 23).replace("T", " ");
@@ -123,7 +105,7 @@ export async function saveProjectSection(
   value: unknown,
 ): Promise<void> {
   requireHomeowner(actor);
-  const schema = SECTION_SCHEMAS[section];
+  const schema = sectionSchemas[section];
   if (!schema) throw unprocessable("Unknown step.");
   const parsed = schema.safeParse(value);
   if (!parsed.success)

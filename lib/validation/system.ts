@@ -191,3 +191,16 @@ export const systemDraftSchema = z.object(
     z.ZodOptional<z.ZodUnknown>
   >,
 );
+
+/** Each step's schema, for saving one step of a draft at a time. */
+export const sectionSchemas: Record<SystemSection, z.ZodType> = {
+  site: siteSchema,
+  collectors: collectorArraySchema,
+  pipeRuns: systemSchema.shape.pipeRuns,
+  pumpStation: pumpStationSchema,
+  expansionVessel: expansionVesselSchema,
+  fluid: fluidSchema,
+  cylinder: cylinderSchema,
+  safety: safetySchema,
+  design: designSchema,
+};

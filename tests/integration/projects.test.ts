@@ -2,7 +2,6 @@ import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import type { Knex } from "knex";
 import { demoSystem } from "@/lib/calc/demo-system";
 import { systemSections } from "@/lib/validation/system";
-import { HttpError } from "@/lib/server/errors";
 import {
   cancelRequest,
   createProject,
@@ -14,16 +13,9 @@ import {
 } from "@/lib/server/projects";
 import { expireRequests } from "@/lib/worker/schedule";
 import { testKnex, truncateAll } from "../support/db";
+import { statusOf } from "../support/status";
 
-const status = async (p: Promise<unknown>) => {
-  try {
-    await p;
-    return 200;
-  } catch (err) {
-    if (err instanceof HttpError) return err.status;
-    throw err;
-  }
-};
+const status = statusOf;
 
 describe("projects and requests against the real MariaDB", () => {
   let knex: Knex;

@@ -12,22 +12,14 @@ import {
   saveReviewerProfile,
   setSuspension,
 } from "@/lib/server/reviewers";
-import { HttpError } from "@/lib/server/errors";
 import { testKnex, truncateAll } from "../support/db";
+import { statusOf } from "../support/status";
 
 const APP = "http://app.test";
 const inYear = new Date(Date.now() + 365 * 86_400_000).toISOString().slice(0, 10);
 const yesterday = new Date(Date.now() - 86_400_000).toISOString().slice(0, 10);
 
-const status = async (p: Promise<unknown>) => {
-  try {
-    await p;
-    return 200;
-  } catch (err) {
-    if (err instanceof HttpError) return err.status;
-    throw err;
-  }
-};
+const status = statusOf;
 
 describe("reviewer verification against the real MariaDB", () => {
   let knex: Knex;
