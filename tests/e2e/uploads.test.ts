@@ -169,6 +169,42 @@ describe("credential evidence through the upload SDK's route handler and the fak
     expect(anon.presignStatus).toBe(403);
   });
 
+  it("refuses one photo too many for a project, with a clear message, before anything is stored", async () => {
+    const ownerId = (
+      await knex("users").where({ email: DEMO_USERS.homeowners[0].email }).first("id")
+    ).id;
+    const project = await knex("projects").where({ owner_id: ownerId }).first("id");
+    const rows = Array.from({ length: 20 }, (_, i) => ({
+      owner_id: ownerId,
+      project_id: project.id,
+      purpose: "photo",
+      file_key: `LIMITKEY${String(i).padStart(4, "0")}`,
+      file_name: `p${i}.png`,
+      mime_type: "image/png",
+      size_bytes: 10,
+    }));
+    await knex("attachments").insert(rows);
+    const r = await uploadViaApp(
+      baseUrl,
+      home,
+      "photo",
+      { projectId: project.id, tag: "roof" },
+      { name: "one-more.png", type: "image/png", bytes: tinyPng() },
+    );
+    expect(r.presignStatus).toBe(400);
+    expect(JSON.stringify(r.presignBody)).toMatch(/at most 20 photos/);
+    // The owner of another project cannot add photos to this one.
+    const other = await signInHttp(baseUrl, DEMO_USERS.homeowners[1].email, DEMO_PASSWORD);
+    const foreign = await uploadViaApp(
+      baseUrl,
+      other.cookie,
+      "photo",
+      { projectId: project.id },
+      { name: "x.png", type: "image/png", bytes: tinyPng() },
+    );
+    expect(foreign.presignStatus).toBe(403);
+  });
+
   it("refuses a tampered presigned URL", async () => {
     const res = await fetch(
       `${baseUrl}/api/uploadthing?actionType=upload&slug=credentialEvidence`,
