@@ -1,0 +1,27 @@
+import { z } from "zod";
+import { requireRole } from "@/lib/server/auth/session";
+import { db } from "@/lib/server/db";
+import { errorResponse, HttpError } from "@/lib/server/errors";
+import { listBoard } from "@/lib/server/board";
+import { boardQuerySchema } from "@/lib/validation/board";
+
+/** The request board as JSON, for the board page's client-side fetching. */
+export async function GET(req: Request) {
+  try {
+    const user = await requireRole("reviewer");
+    const params = Object.fromEntries(new URL(req.url).searchParams);
+    const parsed = boardQuerySchema.safeParse(params);
+    if (!parsed.success) {
+      throw new HttpError(
+        400,
+        "Some filters are not valid.",
+        z.flattenError(parsed.error).fieldErrors as Record<string, string[]>,
+      );
+    }
+    return Response.json(await listBoard(db(), user, parsed.data), {
+      headers: { "cache-control": "private, no-store" },
+    });
+  } catch (err) {
+    return errorResponse(err);
+  }
+}

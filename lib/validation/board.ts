@@ -1,0 +1,33 @@
+import { z } from "zod";
+import { REGION_IDS } from "@/lib/regions";
+
+const optionalNumber = (schema: z.ZodNumber) =>
+  z.preprocess(
+    (v) => (v === "" || v === undefined || v === null ? undefined : v),
+    z.coerce.number().pipe(schema).optional(),
+  );
+
+/** Board filters as they appear in the URL and the JSON route's query string. */
+export const boardQuerySchema = z
+  .object({
+    kind: z.enum(["remote_check", "site_visit"]).optional(),
+    collectorType: z.enum(["flat_plate", "evacuated_tube"]).optional(),
+    region: z.enum(REGION_IDS).optional(),
+    budgetMin: optionalNumber(z.number().min(0).max(100_000)),
+    budgetMax: optionalNumber(z.number().min(0).max(100_000)),
+    postedWithinDays: optionalNumber(z.number().int().min(1).max(365)),
+    sort: z.enum(["newest", "budget"]).default("newest"),
+    cursor: z
+      .string()
+      .regex(/^[\w.: -]+\|\d+$/, "Not a valid page cursor")
+      .optional(),
+    limit: optionalNumber(z.number().int().min(1).max(50)),
+  })
+  .refine(
+    (q) => q.budgetMin === undefined || q.budgetMax === undefined || q.budgetMax >= q.budgetMin,
+    {
+      path: ["budgetMax"],
+      message: "The top of the budget range must be at least the bottom",
+    },
+  );
+export type BoardQuery = z.output<typeof boardQuerySchema>;

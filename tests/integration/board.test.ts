@@ -1,0 +1,145 @@
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import type { Knex } from "knex";
+import { seedDemo, DEMO_USERS } from "@/db/seeds/demo";
+import { buildBoardQuery, listBoard } from "@/lib/server/board";
+import { boardQuerySchema } from "@/lib/validation/board";
+import { testKnex, truncateAll } from "../support/db";
+import { statusOf } from "../support/status";
+
+const sql = (d: Date) => d.toISOString().slice(0, 23).replace("T", " ");
+
+describe("the request board against the real MariaDB", () => {
+  let knex: Knex;
+  let verified: { id: number; role: "reviewer" };
+  let pending: { id: number; role: "reviewer" };
+  const q = (raw: Record<string, string> = {}) => boardQuerySchema.parse(raw);
+
+  beforeAll(async () => {
+    knex = testKnex();
+    await truncateAll(knex);
+    await seedDemo(knex);
+    verified = {
+      id: (await knex("users").where({ email: DEMO_USERS.reviewers[0].email }).first("id")).id,
+      role: "reviewer",
+    };
+    pending = {
+      id: (await knex("users").where({ email: DEMO_USERS.reviewers[2].email }).first("id")).id,
+      role: "reviewer",
+    };
+    // A few hundred open requests spread over kinds, regions, collectors, budgets and ages.
+    const project = await knex("projects").first("id", "owner_id");
+    const regions = ["wales", "south-west", "london", "scotland"];
+    const rows = Array.from({ length: 300 }, (_, i) => ({
+      project_id: project.id,
+      homeowner_id: project.owner_id,
+      kind: i % 3 === 0 ? "site_visit" : "remote_check",
+      status: i % 10 === 9 ? "cancelled" : "open",
+      questions: `Generated question ${i}`,
+      budget_min_minor: 5000 + (i % 20) * 1000,
+      budget_max_minor: 10000 + (i % 20) * 1000,
+      currency: "GBP",
+      region: regions[i % 4],
+      collector_type: i % 2 ? "evacuated_tube" : "flat_plate",
+      expires_at: sql(new Date(Date.now() + (i % 50 === 0 ? -1 : 30) * 86_400_000)),
+      created_at: sql(new Date(Date.now() - i * 3_600_000)),
+    }));
+    await knex.batchInsert("requests", rows, 100);
+  });
+  afterAll(async () => {
+    await truncateAll(knex);
+    await knex.destroy();
+  });
+
+  async function all(raw: Record<string, string>) {
+    const out: Awaited<ReturnType<typeof listBoard>>["items"] = [];
+    let cursor: string | null = null;
+    do {
+      const page = await listBoard(
+        knex,
+        verified,
+        q({ ...raw, limit: "25", ...(cursor ? { cursor } : {}) }),
+      );
+      out.push(...page.items);
+      cursor = page.nextCursor;
+    } while (cursor);
+    return out;
+  }
+
+  it("is for verified reviewers only", async () => {
+    expect(await statusOf(listBoard(knex, pending, q()))).toBe(403);
+    expect(await statusOf(listBoard(knex, { id: 1, role: "homeowner" }, q()))).toBe(403);
+  });
+
+  it("pages through every open, unexpired request once, newest first", async () => {
+    const items = await all({});
+    const expected = await knex("requests")
+      .where({ status: "open" })
+      .andWhere("expires_at", ">", sql(new Date()))
+      .count({ n: "*" });
+    expect(items.length).toBe(Number(expected[0]!.n));
+    expect(new Set(items.map((i) => i.id)).size).toBe(items.length);
+    for (let i = 1; i < items.length; i++)
+      expect(items[i - 1]!.createdAt >= items[i]!.createdAt).toBe(true);
+  });
+
+  it("each filter narrows the result as it should", async () => {
+    const everything = await all({});
+    const site = await all({ kind: "site_visit" });
+    expect(site.length).toBeGreaterThan(0);
+    expect(site.every((i) => i.kind === "site_visit")).toBe(true);
+    expect(site.length).toBe(everything.filter((i) => i.kind === "site_visit").length);
+    const wales = await all({ region: "wales" });
+    expect(wales.length).toBe(everything.filter((i) => i.region === "wales").length);
+    const tubes = await all({ collectorType: "evacuated_tube" });
+    expect(tubes.every((i) => i.collectorType === "evacuated_tube")).toBe(true);
+    const rich = await all({ budgetMin: "250" });
+    expect(rich.length).toBe(everything.filter((i) => i.budgetMaxMinor >= 25000).length);
+    const recent = await all({ postedWithinDays: "2" });
+    expect(recent.length).toBeLessThan(everything.length);
+    expect(
+      recent.every(
+        (i) => new Date(`${i.createdAt}Z`).getTime() >= Date.now() - 2 * 86_400_000 - 5000,
+      ),
+    ).toBe(true);
+    const byBudget = await all({ sort: "budget" });
+    for (let i = 1; i < byBudget.length; i++)
+      expect(byBudget[i - 1]!.budgetMaxMinor >= byBudget[i]!.budgetMaxMinor).toBe(true);
+    expect(byBudget.length).toBe(everything.length);
+  });
+
+  it("carries no homeowner name, address or e-mail", async () => {
+    const page = await listBoard(knex, verified, q());
+    const text = JSON.stringify(page);
+    expect(text).not.toMatch(/@demo\.loopwright\.test|homeowner|display_name|questions/);
+  });
+
+  it("validates the query with a message per field", () => {
+    const r = boardQuerySchema.safeParse({
+      kind: "roof",
+      budgetMin: "300",
+      budgetMax: "100",
+      limit: "500",
+    });
+    expect(r.success).toBe(false);
+    const fields = r.success ? [] : r.error.issues.map((i) => i.path.join("."));
+    expect(fields).toEqual(expect.arrayContaining(["kind", "limit"]));
+  });
+
+  it("is served by an index, not a table scan", async () => {
+    const cases: Record<string, string>[] = [
+      {},
+      { kind: "site_visit" },
+      { kind: "remote_check", region: "wales" },
+      { region: "london" },
+    ];
+    for (const raw of cases) {
+      const built = buildBoardQuery(knex, q(raw), 20).toSQL().toNative();
+      const [plan] = (await knex.raw(`EXPLAIN ${built.sql}`, built.bindings)) as [
+        { table: string; key: string | null; type: string }[],
+      ];
+      const requests = plan.find((p) => p.table === "r")!;
+      expect(requests.type, JSON.stringify(raw)).not.toBe("ALL");
+      expect(requests.key, JSON.stringify(raw)).toMatch(/^requests_board/);
+    }
+  });
+});
