@@ -1,6 +1,7 @@
 import { redirect } from "next/navigation";
 import { AppHeader, navFor } from "@/components/layout/app-header";
 import { SiteFooter } from "@/components/layout/site-header";
+import { Providers } from "@/components/providers";
 import { getCurrentUser } from "@/lib/server/auth/session";
 import { isVerifiedReviewer } from "@/lib/server/reviewers";
 import { db } from "@/lib/server/db";
@@ -13,7 +14,9 @@ export default async function AppLayout({ children }: { children: React.ReactNod
   return (
     <>
       <AppHeader user={user} nav={navFor(user, verified)} />
-      <main className="mx-auto max-w-6xl px-4 py-8">{children}</main>
+      <main className="mx-auto max-w-6xl px-4 py-8">
+        <Providers>{children}</Providers>
+      </main>
       <SiteFooter />
     </>
   );

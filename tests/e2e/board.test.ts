@@ -1,0 +1,73 @@
+import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
+import type { Browser } from "playwright-core";
+import type { Knex } from "knex";
+import { seedDemo, DEMO_PASSWORD, DEMO_USERS } from "@/db/seeds/demo";
+import { launchBrowser } from "../support/browser";
+import { testKnex, truncateAll } from "../support/db";
+import { signInHttp } from "../support/session";
+
+const baseUrl = inject("baseUrl");
+
+describe("the request board in Chromium", () => {
+  let browser: Browser;
+  let knex: Knex;
+  beforeAll(async () => {
+    knex = testKnex();
+    await truncateAll(knex);
+    await seedDemo(knex);
+    browser = await launchBrowser();
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await truncateAll(knex);
+    await knex.destroy();
+  });
+
+  it("answers bad filters with 400 and the field", async () => {
+    const sol = await signInHttp(baseUrl, DEMO_USERS.reviewers[0].email, DEMO_PASSWORD);
+    const res = await fetch(`${baseUrl}/api/board?kind=roof&limit=900`, {
+      headers: { cookie: sol.cookie },
+    });
+    expect(res.status).toBe(400);
+    const body = (await res.json()) as { fieldErrors: Record<string, string[]> };
+    expect(Object.keys(body.fieldErrors)).toEqual(expect.arrayContaining(["kind", "limit"]));
+    expect((await fetch(`${baseUrl}/api/board`)).status).toBe(401);
+    const home = await signInHttp(baseUrl, DEMO_USERS.homeowners[0].email, DEMO_PASSWORD);
+    expect((await fetch(`${baseUrl}/api/board`, { headers: { cookie: home.cookie } })).status).toBe(
+      403,
+    );
+  });
+
+  it("filters by kind with the filter kept in the URL", async () => {
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    context.setDefaultTimeout(15_000);
+    const page = await context.newPage();
+    await page.goto(`${baseUrl}/sign-in`);
+    await page.getByLabel("E-mail").fill(DEMO_USERS.reviewers[0].email);
+    await page.getByLabel("Password").fill(DEMO_PASSWORD);
+    await page.getByRole("button", { name: "Sign in" }).click();
+    await page.waitForURL("**/dashboard");
+    await page.getByRole("link", { name: "Request board" }).click();
+    await page.locator("[data-board-item]").first().waitFor();
+    const open = await knex("requests").where({ status: "open" }).count({ n: "*" });
+    expect(await page.locator("[data-board-item]").count()).toBe(Number(open[0]!.n));
+    await page.getByLabel("Kind").selectOption("site_visit");
+    await page.getByRole("button", { name: "Show requests" }).click();
+    await page.waitForURL(/kind=site_visit/);
+    const sites = await knex("requests")
+      .where({ status: "open", kind: "site_visit" })
+      .count({ n: "*" });
+    await page.waitForFunction(
+      (n) => document.querySelectorAll("[data-board-item]").length === n,
+      Number(sites[0]!.n),
+    );
+    const texts = await page.locator("[data-board-item]").allTextContents();
+    expect(texts.every((t) => t.includes("Site visit"))).toBe(true);
+    // Reloading keeps the filter (it lives in the URL).
+    await page.reload();
+    expect(await page.getByLabel("Kind").inputValue()).toBe("site_visit");
+    await page.locator("[data-board-item]").first().waitFor();
+    await page.screenshot({ path: "tests/e2e/screenshots/board.png", fullPage: true });
+    await context.close();
+  });
+});
