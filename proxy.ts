@@ -9,6 +9,7 @@ export const config = {
     "/dashboard/:path*",
     "/projects/:path*",
     "/board/:path*",
+    "/requests/:path*",
     "/settings/:path*",
     "/reviewer/:path*",
     "/admin/:path*",

@@ -152,9 +152,9 @@ export function BoardView() {
             className="flex flex-wrap items-center gap-3 rounded-card border border-slate-200 bg-white p-4"
           >
             {r.worstLevel ? <LevelBadge level={r.worstLevel as Level} /> : null}
-            <span className="font-semibold">
+            <a className="font-semibold underline" href={`/requests/${r.id}`}>
               {r.kind === "site_visit" ? "Site visit" : "Remote design check"}
-            </span>
+            </a>
             <span>{regionName(r.region)}</span>
             <span>{r.collectorType === "evacuated_tube" ? "evacuated tube" : "flat plate"}</span>
             <span className="font-mono">

@@ -248,3 +248,94 @@ export async function declineQuote(
     await notifyQuoteDeclined(trx, appUrl, quoteId);
   });
 }
+
+export interface RequestForReviewer {
+  id: number;
+  kind: "remote_check" | "site_visit";
+  status: string;
+  region: string;
+  questions: string;
+  budgetMinMinor: number;
+  budgetMaxMinor: number;
+  currency: string;
+  windowStart: string | null;
+  windowEnd: string | null;
+  accessNotes: string | null;
+  system: Record<string, unknown>;
+  files: {
+    id: number;
+    purpose: string;
+    caption: string | null;
+    tag: string | null;
+    mimeType: string;
+    fileName: string;
+  }[];
+  myQuote: {
+    id: number;
+    priceMinor: number;
+    turnaroundDays: number;
+    scopeMd: string;
+    proposedVisitDate: string | null;
+    status: string;
+  } | null;
+}
+
+/**
+ * A request as a verified reviewer sees it: the description, loop-check inputs, sketch and photos
+ * and the questions. No name, address or e-mail of the homeowner: the project title is left out
+ * too, since homeowners often put their street in it.
+ */
+export async function getRequestForReviewer(
+  knex: Knex,
+  actor: Actor,
+  requestId: number,
+): Promise<RequestForReviewer> {
+  await requireVerified(knex, actor);
+  const r = await knex("requests as r")
+    .join("projects as p", "p.id", "r.project_id")
+    .where("r.id", requestId)
+    .first("r.*", "p.system", "p.id as pid");
+  if (!r) throw notFound("No such request.");
+  const mine = await knex("quotes")
+    .where({ request_id: requestId, reviewer_id: actor.id })
+    .whereIn("status", ["live", "accepted"])
+    .first("id", "price_minor", "turnaround_days", "scope_md", "proposed_visit_date", "status");
+  if (r.status !== "open" && !mine) throw notFound("This request is no longer open.");
+  const files = await knex("attachments")
+    .where({ project_id: r.pid })
+    .whereNull("deleted_at")
+    .orderBy("id")
+    .select("id", "purpose", "caption", "tag", "mime_type", "file_name");
+  return {
+    id: Number(r.id),
+    kind: r.kind,
+    status: r.status,
+    region: r.region,
+    questions: r.questions,
+    budgetMinMinor: r.budget_min_minor,
+    budgetMaxMinor: r.budget_max_minor,
+    currency: r.currency,
+    windowStart: r.window_start,
+    windowEnd: r.window_end,
+    accessNotes: r.access_notes,
+    system: typeof r.system === "string" ? JSON.parse(r.system) : r.system,
+    files: files.map((f) => ({
+      id: Number(f.id),
+      purpose: f.purpose,
+      caption: f.caption,
+      tag: f.tag,
+      mimeType: f.mime_type,
+      fileName: f.file_name,
+    })),
+    myQuote: mine
+      ? {
+          id: Number(mine.id),
+          priceMinor: mine.price_minor,
+          turnaroundDays: mine.turnaround_days,
+          scopeMd: mine.scope_md,
+          proposedVisitDate: mine.proposed_visit_date,
+          status: mine.status,
+        }
+      : null,
+  };
+}

@@ -70,4 +70,54 @@ describe("the request board in Chromium", () => {
     await page.screenshot({ path: "tests/e2e/screenshots/board.png", fullPage: true });
     await context.close();
   });
+
+  it("a reviewer opens a request and quotes; the homeowner compares and accepts", async () => {
+    const request = await knex("requests as r")
+      .join("users as u", "u.id", "r.homeowner_id")
+      .where({ "r.status": "open", "r.kind": "remote_check" })
+      .first("r.id", "u.email", "u.display_name");
+    await knex("quotes").where({ request_id: request.id }).del();
+    const reviewer = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    reviewer.setDefaultTimeout(15_000);
+    const rp = await reviewer.newPage();
+    await rp.goto(
+      `${baseUrl}/sign-in?callbackUrl=${encodeURIComponent(`/requests/${request.id}`)}`,
+    );
+    await rp.getByLabel("E-mail").fill(DEMO_USERS.reviewers[1].email);
+    await rp.getByLabel("Password").fill(DEMO_PASSWORD);
+    await rp.getByRole("button", { name: "Sign in" }).click();
+    await rp.waitForURL(`**/requests/${request.id}`);
+    const body = await rp.content();
+    expect(body).not.toContain(request.email);
+    expect(body).not.toContain(request.display_name);
+    await rp.getByLabel("Price").fill("0");
+    await rp.getByLabel("Turnaround").fill("4");
+    await rp
+      .getByLabel("What the review covers (Markdown)")
+      .fill("**Checklist review** of the sketch and photos, with a written report.");
+    await rp.getByRole("button", { name: "Send quote" }).click();
+    await rp.locator("#f-pricePounds-error", { hasText: /At least £10/ }).waitFor();
+    await rp.getByLabel("Price").fill("120");
+    await rp.getByRole("button", { name: "Send quote" }).click();
+    await rp.getByText("Quote sent.").waitFor();
+
+    const homeowner = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    homeowner.setDefaultTimeout(15_000);
+    const hp = await homeowner.newPage();
+    await hp.goto(
+      `${baseUrl}/sign-in?callbackUrl=${encodeURIComponent(`/requests/${request.id}`)}`,
+    );
+    await hp.getByLabel("E-mail").fill(request.email);
+    await hp.getByLabel("Password").fill(DEMO_PASSWORD);
+    await hp.getByRole("button", { name: "Sign in" }).click();
+    await hp.waitForURL(`**/requests/${request.id}`);
+    expect(await hp.locator("strong", { hasText: "Checklist review" }).count()).toBe(1);
+    await hp.getByRole("button", { name: /^Accept the quote from/ }).click();
+    await hp.locator('[data-quote="accepted"]').waitFor();
+    const job = await knex("jobs").where({ request_id: request.id }).first("state", "amount_minor");
+    expect(job).toMatchObject({ state: "awaiting_payment", amount_minor: 12000 });
+    await hp.screenshot({ path: "tests/e2e/screenshots/quotes.png", fullPage: true });
+    await reviewer.close();
+    await homeowner.close();
+  });
 });

@@ -35,7 +35,10 @@ describe("quotes and accepting one, against the real MariaDB", () => {
       .first("id", "homeowner_id");
     requestId = Number(open.id);
     who.owner = { id: Number(open.homeowner_id), role: "homeowner" };
-    const stranger = await knex("users").where({ role: "homeowner" }).whereNot({ id: who.owner.id }).first("id");
+    const stranger = await knex("users")
+      .where({ role: "homeowner" })
+      .whereNot({ id: who.owner.id })
+      .first("id");
     who.stranger = { id: Number(stranger.id), role: "homeowner" };
     // Start from a request with no quotes on it.
     await knex("quotes").where({ request_id: requestId }).del();

@@ -88,6 +88,9 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
                     ? `open until ${r.expiresAt.slice(0, 10)}`
                     : `posted ${r.createdAt.slice(0, 10)}`}
                 </span>
+                <Link className="underline" href={`/requests/${r.id}`}>
+                  Quotes
+                </Link>
                 {r.status === "open" ? (
                   <form action={withdrawRequest.bind(null, project.id, r.id)}>
                     <Button type="submit" variant="ghost" className="min-h-11">
