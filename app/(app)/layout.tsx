@@ -5,15 +5,19 @@ import { Providers } from "@/components/providers";
 import { getCurrentUser } from "@/lib/server/auth/session";
 import { isVerifiedReviewer } from "@/lib/server/reviewers";
 import { db } from "@/lib/server/db";
+import { countUnread } from "@/lib/server/messages";
 
 export default async function AppLayout({ children }: { children: React.ReactNode }) {
   // The layout only draws the shell; each page checks access for itself.
   const user = await getCurrentUser();
   if (!user) redirect("/sign-in");
-  const verified = user.role === "reviewer" ? await isVerifiedReviewer(db(), user.id) : false;
+  const [verified, unread] = await Promise.all([
+    user.role === "reviewer" ? isVerifiedReviewer(db(), user.id) : false,
+    user.role === "admin" ? 0 : countUnread(db(), user.id),
+  ]);
   return (
     <>
-      <AppHeader user={user} nav={navFor(user, verified)} />
+      <AppHeader user={user} nav={navFor(user, verified)} unread={unread} />
       <main className="mx-auto max-w-6xl px-4 py-8">
         <Providers>{children}</Providers>
       </main>

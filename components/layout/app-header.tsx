@@ -32,7 +32,15 @@ export function navFor(user: CurrentUser, reviewerVerified: boolean): NavItem[] 
   ];
 }
 
-export function AppHeader({ user, nav }: { user: CurrentUser; nav: NavItem[] }) {
+export function AppHeader({
+  user,
+  nav,
+  unread = 0,
+}: {
+  user: CurrentUser;
+  nav: NavItem[];
+  unread?: number;
+}) {
   return (
     <header className="border-b border-slate-200 bg-white">
       <div className="mx-auto flex max-w-6xl flex-wrap items-center justify-between gap-3 px-4 py-3">
@@ -58,6 +66,16 @@ export function AppHeader({ user, nav }: { user: CurrentUser; nav: NavItem[] }) 
                 </Link>
               </li>
             ))}
+            {unread > 0 ? (
+              <li>
+                <span
+                  data-unread={unread}
+                  className="rounded-full bg-sun-300 px-2.5 py-0.5 text-sm font-bold text-slate-900"
+                >
+                  {unread} unread {unread === 1 ? "message" : "messages"}
+                </span>
+              </li>
+            ) : null}
             <li className="px-2 text-sm text-slate-500">
               {user.displayName} · {user.role}
             </li>

@@ -17,6 +17,7 @@ import { LoopCheckResults } from "@/components/loop-check/loop-check-results";
 import { QuoteForm } from "@/components/quotes/quote-form";
 import { AcceptButton } from "@/components/quotes/accept-button";
 import { declineQuoteAction, takeBackQuote } from "@/components/quotes/actions";
+import { MessageThread } from "@/components/quotes/message-thread";
 
 export const metadata: Metadata = { title: "Request" };
 
@@ -93,6 +94,11 @@ async function ReviewerView({ user, requestId }: { user: CurrentUser; requestId:
           </>
         )}
       </Card>
+      {r.myQuote ? (
+        <Card>
+          <MessageThread requestId={r.id} title="Messages with the homeowner" />
+        </Card>
+      ) : null}
       <Cautions compact />
       <LoopCheckResults result={result} />
     </div>
@@ -170,6 +176,15 @@ async function HomeownerView({ user, requestId }: { user: CurrentUser; requestId
           </tbody>
         </table>
       </div>
+      {quotes.map((q) => (
+        <Card key={`thread-${q.id}`}>
+          <MessageThread
+            requestId={requestId}
+            reviewerId={q.reviewerId}
+            title={`Messages with ${q.tradingName}`}
+          />
+        </Card>
+      ))}
     </div>
   );
 }

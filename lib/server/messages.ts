@@ -1,0 +1,118 @@
+import "server-only";
+import type { Knex } from "knex";
+import { z } from "zod";
+import { notifyNewMessage } from "@/lib/mail/notify";
+import { env } from "@/lib/env";
+import { forbidden, notFound, unprocessable } from "./errors";
+import type { Actor } from "./reviewers";
+
+export const messageSchema = z.object({
+  body: z.string().trim().min(1, "Write a message").max(4000, "At most 4,000 characters"),
+});
+
+export interface Message {
+  id: number;
+  mine: boolean;
+  senderName: string;
+  bodyMd: string;
+  createdAt: string;
+}
+
+/**
+ * The thread between a request's homeowner and one quoting reviewer. Only those two take part:
+ * a reviewer reaches only their own thread; the homeowner names which reviewer's thread.
+ */
+async function threadFor(knex: Knex, actor: Actor, requestId: number, reviewerId?: number) {
+  const request = await knex("requests").where({ id: requestId }).first("id", "homeowner_id");
+  if (!request) throw notFound("No such request.");
+  let thread;
+  if (actor.role === "reviewer") {
+    thread = await knex("message_threads")
+      .where({ request_id: requestId, reviewer_id: actor.id })
+      .first("id", "reviewer_id");
+    if (!thread) throw forbidden("Quote on the request to message the homeowner.");
+  } else if (actor.role === "homeowner" && Number(request.homeowner_id) === actor.id) {
+    if (!reviewerId) throw unprocessable("Say which reviewer's conversation.");
+    thread = await knex("message_threads")
+      .where({ request_id: requestId, reviewer_id: reviewerId })
+      .first("id", "reviewer_id");
+    if (!thread) throw notFound("No conversation with that reviewer.");
+  } else {
+    throw notFound("No such request.");
+  }
+  return { threadId: Number(thread.id) };
+}
+
+export async function listMessages(
+  knex: Knex,
+  actor: Actor,
+  requestId: number,
+  reviewerId?: number,
+): Promise<Message[]> {
+  const { threadId } = await threadFor(knex, actor, requestId, reviewerId);
+  const rows = await knex("messages as m")
+    .join("users as u", "u.id", "m.sender_id")
+    .where("m.thread_id", threadId)
+    .orderBy("m.id")
+    .limit(500)
+    .select("m.id", "m.sender_id", "m.body_md", "m.created_at", "u.display_name");
+  const last = rows.at(-1);
+  if (last) {
+    await knex.raw(
+      "INSERT INTO message_reads (thread_id, user_id, last_read_message_id) VALUES (?, ?, ?) ON DUPLICATE KEY UPDATE last_read_message_id = GREATEST(last_read_message_id, VALUES(last_read_message_id))",
+      [threadId, actor.id, last.id],
+    );
+  }
+  return rows.map((r) => ({
+    id: Number(r.id),
+    mine: Number(r.sender_id) === actor.id,
+    senderName: r.display_name,
+    bodyMd: r.body_md,
+    createdAt: r.created_at,
+  }));
+}
+
+export async function postMessage(
+  knex: Knex,
+  actor: Actor,
+  requestId: number,
+  input: unknown,
+  reviewerId?: number,
+): Promise<number> {
+  const parsed = messageSchema.safeParse(input);
+  if (!parsed.success)
+    throw unprocessable(
+      "The message needs attention.",
+      z.flattenError(parsed.error).fieldErrors as Record<string, string[]>,
+    );
+  const { threadId } = await threadFor(knex, actor, requestId, reviewerId);
+  return knex.transaction(async (trx) => {
+    const [id] = await trx("messages").insert({
+      thread_id: threadId,
+      sender_id: actor.id,
+      body_md: parsed.data.body,
+    });
+    await trx("message_threads")
+      .where({ id: threadId })
+      .update({ last_message_at: trx.raw("CURRENT_TIMESTAMP(3)") });
+    await notifyNewMessage(trx, env().APP_URL, Number(id));
+    return Number(id);
+  });
+}
+
+/** Messages sent to this person that they have not opened yet, across all their threads. */
+export async function countUnread(knex: Knex, userId: number): Promise<number> {
+  const [row] = (await knex("messages as m")
+    .join("message_threads as t", "t.id", "m.thread_id")
+    .join("requests as r", "r.id", "t.request_id")
+    .leftJoin("message_reads as mr", function () {
+      this.on("mr.thread_id", "t.id").andOnVal("mr.user_id", userId);
+    })
+    .where((w) => w.where("t.reviewer_id", userId).orWhere("r.homeowner_id", userId))
+    .whereNot("m.sender_id", userId)
+    .where((w) =>
+      w.whereNull("mr.last_read_message_id").orWhereRaw("m.id > mr.last_read_message_id"),
+    )
+    .count({ n: "*" })) as [{ n: number }];
+  return Number(row.n);
+}
