@@ -114,9 +114,13 @@ describe("the request board in Chromium", () => {
     expect(await hp.locator("strong", { hasText: "Checklist review" }).count()).toBe(1);
     // A message from the reviewer appears on the homeowner's open page without a reload.
     await rp.reload();
-    await rp.getByLabel("Message (Markdown)").fill("Could you add a photo of the **vessel** connection?");
+    await rp
+      .getByLabel("Message (Markdown)")
+      .fill("Could you add a photo of the **vessel** connection?");
     await rp.getByRole("button", { name: "Send message" }).click();
-    await hp.locator("[data-message]", { hasText: "Could you add a photo of the vessel connection?" }).waitFor({ timeout: 15_000 });
+    await hp
+      .locator("[data-message]", { hasText: "Could you add a photo of the vessel connection?" })
+      .waitFor({ timeout: 15_000 });
     await hp.getByRole("button", { name: /^Accept the quote from/ }).click();
     await hp.locator('[data-quote="accepted"]').waitFor();
     const job = await knex("jobs").where({ request_id: request.id }).first("state", "amount_minor");
