@@ -121,6 +121,9 @@ describe("the request board in Chromium", () => {
     await hp
       .locator("[data-message]", { hasText: "Could you add a photo of the vessel connection?" })
       .waitFor({ timeout: 15_000 });
+    // The comparison table sorts by price on a click.
+    await hp.getByRole("button", { name: /^Price/ }).click();
+    expect(await hp.locator('th[aria-sort="descending"]').count()).toBe(1);
     await hp.getByRole("button", { name: /^Accept the quote from/ }).click();
     await hp.locator('[data-quote="accepted"]').waitFor();
     const job = await knex("jobs").where({ request_id: request.id }).first("state", "amount_minor");

@@ -1,7 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import ReactMarkdown from "react-markdown";
 import { pageUser, type CurrentUser } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
 import { HttpError } from "@/lib/server/errors";
@@ -15,8 +14,8 @@ import { Forbidden } from "@/components/ui/forbidden";
 import { Cautions } from "@/components/ui/caution";
 import { LoopCheckResults } from "@/components/loop-check/loop-check-results";
 import { QuoteForm } from "@/components/quotes/quote-form";
-import { AcceptButton } from "@/components/quotes/accept-button";
-import { declineQuoteAction, takeBackQuote } from "@/components/quotes/actions";
+import { QuoteTable } from "@/components/quotes/quote-table";
+import { takeBackQuote } from "@/components/quotes/actions";
 import { MessageThread } from "@/components/quotes/message-thread";
 
 export const metadata: Metadata = { title: "Request" };
@@ -125,57 +124,9 @@ async function HomeownerView({ user, requestId }: { user: CurrentUser; requestId
           <p>No quotes yet. You will get an e-mail for each one.</p>
         </Card>
       ) : null}
-      <div className="overflow-x-auto rounded-card border border-slate-200 bg-white">
-        <table className="w-full text-left" aria-label="Quotes, cheapest first">
-          <thead className="border-b border-slate-200 text-sm text-slate-600">
-            <tr>
-              <th className="p-3">Reviewer</th>
-              <th className="p-3">Price</th>
-              <th className="p-3">Turnaround</th>
-              <th className="p-3">Rating</th>
-              <th className="p-3">Scope</th>
-              <th className="p-3"> </th>
-            </tr>
-          </thead>
-          <tbody>
-            {quotes.map((q) => (
-              <tr key={q.id} className="border-b border-slate-100 align-top" data-quote={q.status}>
-                <td className="p-3">
-                  <Link className="font-semibold underline" href={`/reviewers/${q.reviewerId}`}>
-                    {q.tradingName}
-                  </Link>
-                  <div className="text-sm text-slate-600">{q.yearsInTrade} years</div>
-                </td>
-                <td className="p-3 font-mono">{formatMoney(q.priceMinor, q.currency)}</td>
-                <td className="p-3">
-                  {q.turnaroundDays} days
-                  {q.proposedVisitDate ? (
-                    <div className="text-sm">visit {q.proposedVisitDate}</div>
-                  ) : null}
-                </td>
-                <td className="p-3">{q.rating ? `${q.rating.toFixed(1)} / 5` : "—"}</td>
-                <td className="prose prose-sm max-w-md p-3">
-                  <ReactMarkdown>{q.scopeMd}</ReactMarkdown>
-                </td>
-                <td className="space-y-2 p-3">
-                  {q.status === "accepted" ? (
-                    <span className="font-semibold text-level-ok">Accepted</span>
-                  ) : request.status === "open" ? (
-                    <>
-                      <AcceptButton requestId={requestId} quoteId={q.id} label={q.tradingName} />
-                      <form action={declineQuoteAction.bind(null, requestId, q.id)}>
-                        <Button type="submit" variant="ghost" className="min-h-11">
-                          Decline
-                        </Button>
-                      </form>
-                    </>
-                  ) : null}
-                </td>
-              </tr>
-            ))}
-          </tbody>
-        </table>
-      </div>
+      {quotes.length ? (
+        <QuoteTable requestId={requestId} quotes={quotes} open={request.status === "open"} />
+      ) : null}
       {quotes.map((q) => (
         <Card key={`thread-${q.id}`}>
           <MessageThread

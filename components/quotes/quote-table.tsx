@@ -1,0 +1,168 @@
+"use client";
+
+import { useState } from "react";
+import Link from "next/link";
+import ReactMarkdown from "react-markdown";
+import {
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type SortingState,
+} from "@tanstack/react-table";
+import type { QuoteForHomeowner } from "@/lib/server/quotes";
+import { formatMoney } from "@/lib/money";
+import { Button } from "@/components/ui/button";
+import { AcceptButton } from "./accept-button";
+import { declineQuoteAction } from "./actions";
+
+const col = createColumnHelper<QuoteForHomeowner>();
+
+/** The quotes on a request, side by side: sortable by price, turnaround and rating. */
+export function QuoteTable({
+  requestId,
+  quotes,
+  open,
+}: {
+  requestId: number;
+  quotes: QuoteForHomeowner[];
+  open: boolean;
+}) {
+  const [sorting, setSorting] = useState<SortingState>([]);
+  const columns = [
+    col.accessor("tradingName", {
+      header: "Reviewer",
+      enableSorting: false,
+      cell: (c) => (
+        <>
+          <Link
+            className="font-semibold underline"
+            href={`/reviewers/${c.row.original.reviewerId}`}
+          >
+            {c.getValue()}
+          </Link>
+          <div className="text-sm text-slate-600">
+            {c.row.original.yearsInTrade} years · verified credentials on the profile
+          </div>
+        </>
+      ),
+    }),
+    col.accessor("priceMinor", {
+      id: "price",
+      header: "Price",
+      cell: (c) => (
+        <span className="font-mono">{formatMoney(c.getValue(), c.row.original.currency)}</span>
+      ),
+    }),
+    col.accessor("turnaroundDays", {
+      id: "turnaround",
+      header: "Turnaround",
+      cell: (c) => (
+        <>
+          {c.getValue()} days
+          {c.row.original.proposedVisitDate ? (
+            <div className="text-sm">visit {c.row.original.proposedVisitDate}</div>
+          ) : null}
+        </>
+      ),
+    }),
+    col.accessor((q) => q.rating ?? -1, {
+      id: "rating",
+      header: "Rating",
+      cell: (c) => (c.row.original.rating ? `${c.row.original.rating.toFixed(1)} / 5` : "—"),
+    }),
+    col.accessor("scopeMd", {
+      header: "Scope",
+      enableSorting: false,
+      cell: (c) => (
+        <div className="prose prose-sm max-w-md">
+          <ReactMarkdown>{c.getValue()}</ReactMarkdown>
+        </div>
+      ),
+    }),
+    col.display({
+      id: "actions",
+      header: "",
+      cell: (c) => {
+        const q = c.row.original;
+        if (q.status === "accepted")
+          return <span className="font-semibold text-level-ok">Accepted</span>;
+        if (!open) return null;
+        return (
+          <div className="space-y-2">
+            <AcceptButton requestId={requestId} quoteId={q.id} label={q.tradingName} />
+            <form action={declineQuoteAction.bind(null, requestId, q.id)}>
+              <Button type="submit" variant="ghost" className="min-h-11">
+                Decline
+              </Button>
+            </form>
+          </div>
+        );
+      },
+    }),
+  ];
+  // TanStack Table hands back functions the React Compiler cannot memoise; nothing here is compiled.
+  // eslint-disable-next-line react-hooks/incompatible-library
+  const table = useReactTable({
+    data: quotes,
+    columns,
+    state: { sorting },
+    onSortingChange: setSorting,
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+  });
+  return (
+    <div className="overflow-x-auto rounded-card border border-slate-200 bg-white">
+      <table className="w-full text-left" aria-label="Quotes">
+        <thead className="border-b border-slate-200 text-sm text-slate-600">
+          {table.getHeaderGroups().map((g) => (
+            <tr key={g.id}>
+              {g.headers.map((h) => {
+                const sorted = h.column.getIsSorted();
+                return (
+                  <th
+                    key={h.id}
+                    scope="col"
+                    className="p-3"
+                    aria-sort={
+                      sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined
+                    }
+                  >
+                    {h.column.getCanSort() ? (
+                      <button
+                        type="button"
+                        onClick={h.column.getToggleSortingHandler()}
+                        className="min-h-11 font-semibold underline-offset-2 hover:underline"
+                      >
+                        {flexRender(h.column.columnDef.header, h.getContext())}{" "}
+                        {sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : ""}
+                      </button>
+                    ) : (
+                      flexRender(h.column.columnDef.header, h.getContext())
+                    )}
+                  </th>
+                );
+              })}
+            </tr>
+          ))}
+        </thead>
+        <tbody>
+          {table.getRowModel().rows.map((row) => (
+            <tr
+              key={row.id}
+              className="border-b border-slate-100 align-top"
+              data-quote={row.original.status}
+            >
+              {row.getVisibleCells().map((cell) => (
+                <td key={cell.id} className="p-3">
+                  {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                </td>
+              ))}
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
