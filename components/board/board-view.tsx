@@ -122,10 +122,22 @@ export function BoardView() {
           />
         </label>
         <label className="text-sm font-semibold">
+          Site visits within (km)
+          <input
+            name="withinKm"
+            type="number"
+            min={1}
+            defaultValue={search.get("withinKm") ?? ""}
+            className={inputClass}
+          />
+        </label>
+        <label className="text-sm font-semibold">
           Sort
           <select name="sort" defaultValue={search.get("sort") ?? "newest"} className={inputClass}>
             <option value="newest">Newest first</option>
             <option value="budget">Highest budget first</option>
+            <option value="distance">Nearest site visits first</option>
+            <option value="soonest">Soonest visit window first</option>
           </select>
         </label>
         <div className="flex items-end gap-2">
@@ -161,6 +173,7 @@ export function BoardView() {
               {formatMoney(r.budgetMinMinor, r.currency)}–
               {formatMoney(r.budgetMaxMinor, r.currency)}
             </span>
+            {r.distanceKm !== null ? <span className="text-sm">{r.distanceKm} km away</span> : null}
             {r.windowStart ? (
               <span className="text-sm">
                 visit {r.windowStart} to {r.windowEnd}

@@ -93,6 +93,23 @@ export function RequestForm({ projectId }: { projectId: number }) {
             defaultValue={v?.windowEnd ?? ""}
             errors={e}
           />
+          <FormField
+            name="siteLat"
+            label="Site latitude (optional)"
+            type="number"
+            step="any"
+            hint="Only for distances on the board"
+            defaultValue={v?.siteLat ?? ""}
+            errors={e}
+          />
+          <FormField
+            name="siteLng"
+            label="Site longitude (optional)"
+            type="number"
+            step="any"
+            defaultValue={v?.siteLng ?? ""}
+            errors={e}
+          />
           <Field
             id="f-accessNotes"
             label="Access notes (loft hatch, scaffold, parking)"

@@ -1,7 +1,7 @@
 import "server-only";
 import type { Knex } from "knex";
 import type { BoardQuery } from "@/lib/validation/board";
-import { forbidden } from "./errors";
+import { forbidden, unprocessable } from "./errors";
 import { isVerifiedReviewer, type Actor } from "./reviewers";
 
 export interface BoardItem {
@@ -17,6 +17,7 @@ export interface BoardItem {
   createdAt: string;
   expiresAt: string;
   worstLevel: string | null;
+  distanceKm: number | null;
 }
 
 export interface BoardPage {
@@ -37,6 +38,7 @@ interface BoardRow {
   created_at: string;
   expires_at: string;
   project_id: number;
+  distance_km: number | string | null;
 }
 
 const sqlNow = (offsetMs = 0) =>
@@ -51,7 +53,20 @@ export async function listBoard(knex: Knex, actor: Actor, q: BoardQuery): Promis
   if (actor.role !== "reviewer" || !(await isVerifiedReviewer(knex, actor.id)))
     throw forbidden("The board is open to verified reviewers.");
   const limit = q.limit ?? 20;
-  const query = buildBoardQuery(knex, q, limit);
+  const profile = await knex("reviewer_profiles")
+    .where({ user_id: actor.id })
+    .first("centre_lat", "centre_lng");
+  const centre =
+    profile?.centre_lat != null && profile?.centre_lng != null
+      ? { lat: Number(profile.centre_lat), lng: Number(profile.centre_lng) }
+      : null;
+  if ((q.withinKm || q.sort === "distance") && !centre) {
+    throw unprocessable(
+      "Set your site-visit centre point in your profile to filter or sort by distance.",
+      { withinKm: ["Needs your centre point"] },
+    );
+  }
+  const query = buildBoardQuery(knex, q, limit, centre);
   const rows = (await query) as BoardRow[];
   const page = rows.slice(0, limit);
   // The loop-check level comes from the projects in a second, primary-key lookup, so the board
@@ -78,44 +93,78 @@ export async function listBoard(knex: Knex, actor: Actor, q: BoardQuery): Promis
       createdAt: r.created_at,
       expiresAt: r.expires_at,
       worstLevel: levels.get(Number(r.project_id)) ?? null,
+      distanceKm: r.distance_km === null ? null : Math.round(Number(r.distance_km) * 10) / 10,
     })),
     nextCursor:
       rows.length > limit && last
-        ? `${q.sort === "budget" ? last.budget_max_minor : last.created_at}|${last.id}`
+        ? q.sort === "distance" || q.sort === "soonest"
+          ? `o:${(q.cursor?.startsWith("o:") ? Number(q.cursor.slice(2)) : 0) + limit}`
+          : `${q.sort === "budget" ? last.budget_max_minor : last.created_at}|${last.id}`
         : null,
   };
 }
 
 /** The board's query on its own, so tests can EXPLAIN exactly what the route runs. */
-export function buildBoardQuery(knex: Knex, q: BoardQuery, limit: number): Knex.QueryBuilder {
+export interface Centre {
+  lat: number;
+  lng: number;
+}
+
+/** Great-circle distance in km from the centre (haversine, mean Earth radius 6371 km). */
+function distanceSql(knex: Knex, c: Centre) {
+  return knex.raw(
+    "6371 * 2 * ASIN(SQRT(POWER(SIN(RADIANS(r.site_lat - ?) / 2), 2) + COS(RADIANS(?)) * COS(RADIANS(r.site_lat)) * POWER(SIN(RADIANS(r.site_lng - ?) / 2), 2)))",
+    [c.lat, c.lat, c.lng],
+  );
+}
+
+/**
+ * The board's query on its own, so tests can EXPLAIN exactly what the route runs. Newest and
+ * budget use keyset cursors; distance and soonest-visit (site visits only, a small set) use an
+ * offset cursor `o:N`.
+ */
+export function buildBoardQuery(
+  knex: Knex,
+  q: BoardQuery,
+  limit: number,
+  centre: Centre | null = null,
+): Knex.QueryBuilder {
+  const keyset = q.sort === "newest" || q.sort === "budget";
   const sortColumn = q.sort === "budget" ? "r.budget_max_minor" : "r.created_at";
-  return knex("requests as r")
-    .where("r.status", "open")
-    .andWhere("r.expires_at", ">", sqlNow())
-    .modify((b) => {
-      if (q.kind) b.where("r.kind", q.kind);
-      if (q.region) b.where("r.region", q.region);
-      if (q.collectorType) b.where("r.collector_type", q.collectorType);
-      if (q.budgetMin !== undefined)
-        b.where("r.budget_max_minor", ">=", Math.round(q.budgetMin * 100));
-      if (q.budgetMax !== undefined)
-        b.where("r.budget_min_minor", "<=", Math.round(q.budgetMax * 100));
-      if (q.postedWithinDays)
-        b.where("r.created_at", ">=", sqlNow(-q.postedWithinDays * 86_400_000));
-      if (q.cursor) {
-        const [value, id] = q.cursor.split("|") as [string, string];
-        // Written out as OR: MariaDB does not use a row comparison as an index range.
-        b.where((w) =>
-          w
-            .where(sortColumn, "<", value)
-            .orWhere((x) => x.where(sortColumn, value).andWhere("r.id", "<", Number(id))),
-        );
-      }
-    })
-    .orderBy([
+  const b = knex("requests as r").where("r.status", "open").andWhere("r.expires_at", ">", sqlNow());
+  if (q.kind) b.where("r.kind", q.kind);
+  if (q.region) b.where("r.region", q.region);
+  if (q.collectorType) b.where("r.collector_type", q.collectorType);
+  if (q.budgetMin !== undefined) b.where("r.budget_max_minor", ">=", Math.round(q.budgetMin * 100));
+  if (q.budgetMax !== undefined) b.where("r.budget_min_minor", "<=", Math.round(q.budgetMax * 100));
+  if (q.postedWithinDays) b.where("r.created_at", ">=", sqlNow(-q.postedWithinDays * 86_400_000));
+  if (q.withinKm && centre)
+    b.whereNotNull("r.site_lat").where(distanceSql(knex, centre), "<=", q.withinKm);
+  if (q.sort === "distance") b.whereNotNull("r.site_lat");
+  if (q.sort === "soonest") b.whereNotNull("r.window_start");
+  if (q.cursor && keyset && q.cursor.includes("|")) {
+    const [value, id] = q.cursor.split("|") as [string, string];
+    // Written out as OR: MariaDB does not use a row comparison as an index range.
+    b.where((w) =>
+      w
+        .where(sortColumn, "<", value)
+        .orWhere((x) => x.where(sortColumn, value).andWhere("r.id", "<", Number(id))),
+    );
+  }
+  if (q.sort === "distance" && centre)
+    b.orderByRaw("? ASC", [distanceSql(knex, centre)]).orderBy("r.id", "desc");
+  else if (q.sort === "soonest")
+    b.orderBy([
+      { column: "r.window_start", order: "asc" },
+      { column: "r.id", order: "desc" },
+    ]);
+  else
+    b.orderBy([
       { column: sortColumn, order: "desc" },
       { column: "r.id", order: "desc" },
-    ])
+    ]);
+  if (!keyset && q.cursor?.startsWith("o:")) b.offset(Number(q.cursor.slice(2)));
+  return b
     .limit(limit + 1)
     .select(
       "r.id",
@@ -130,5 +179,8 @@ export function buildBoardQuery(knex: Knex, q: BoardQuery, limit: number): Knex.
       "r.created_at",
       "r.expires_at",
       "r.project_id",
+      centre
+        ? knex.raw("? AS distance_km", [distanceSql(knex, centre)])
+        : knex.raw("NULL AS distance_km"),
     );
 }

@@ -188,6 +188,8 @@ function requestRow(v: z.output<typeof requestSchema>) {
     window_start: site ? v.windowStart || null : null,
     window_end: site ? v.windowEnd || null : null,
     access_notes: site ? v.accessNotes || null : null,
+    site_lat: site ? (v.siteLat ?? null) : null,
+    site_lng: site ? (v.siteLng ?? null) : null,
   };
 }
 

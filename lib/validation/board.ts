@@ -16,10 +16,11 @@ export const boardQuerySchema = z
     budgetMin: optionalNumber(z.number().min(0).max(100_000)),
     budgetMax: optionalNumber(z.number().min(0).max(100_000)),
     postedWithinDays: optionalNumber(z.number().int().min(1).max(365)),
-    sort: z.enum(["newest", "budget"]).default("newest"),
+    withinKm: optionalNumber(z.number().min(1).max(1000)),
+    sort: z.enum(["newest", "budget", "distance", "soonest"]).default("newest"),
     cursor: z
       .string()
-      .regex(/^[\w.: -]+\|\d+$/, "Not a valid page cursor")
+      .regex(/^([\w.: -]+\|\d+|o:\d{1,6})$/, "Not a valid page cursor")
       .optional(),
     limit: optionalNumber(z.number().int().min(1).max(50)),
   })

@@ -18,6 +18,19 @@ export const requestSchema = z
     windowStart: z.iso.date().optional().or(z.literal("")),
     windowEnd: z.iso.date().optional().or(z.literal("")),
     accessNotes: z.string().trim().max(2000).optional(),
+    /** Optional site centre for distances on the board; no outside geocoder is used. */
+    siteLat: z.preprocess(
+      (v) => (v === "" || v === undefined ? undefined : v),
+      z.coerce.number().min(-90).max(90).optional(),
+    ),
+    siteLng: z.preprocess(
+      (v) => (v === "" || v === undefined ? undefined : v),
+      z.coerce.number().min(-180).max(180).optional(),
+    ),
+  })
+  .refine((r) => (r.siteLat === undefined) === (r.siteLng === undefined), {
+    path: ["siteLng"],
+    message: "Give both latitude and longitude, or neither",
   })
   .refine((r) => r.budgetMaxPounds >= r.budgetMinPounds, {
     path: ["budgetMaxPounds"],

@@ -125,6 +125,52 @@ describe("the request board against the real MariaDB", () => {
     expect(fields).toEqual(expect.arrayContaining(["kind", "limit"]));
   });
 
+  it("filters and sorts site visits by distance from the reviewer's centre, and by the soonest window", async () => {
+    expect(await statusOf(listBoard(knex, verified, q({ sort: "distance" })))).toBe(422); // no centre yet
+    // Centre: a point in mid-Wales (invented demo geography); sites 10, 60 and 200 km north of it.
+    await knex("reviewer_profiles")
+      .where({ user_id: verified.id })
+      .update({ centre_lat: 52.0, centre_lng: -3.5 });
+    const project = await knex("projects").first("id", "owner_id");
+    const base = {
+      project_id: project.id,
+      homeowner_id: project.owner_id,
+      kind: "site_visit",
+      status: "open",
+      questions: "Visit please",
+      budget_min_minor: 9000,
+      budget_max_minor: 20000,
+      currency: "GBP",
+      region: "wales",
+      collector_type: "flat_plate",
+      expires_at: sql(new Date(Date.now() + 10 * 86_400_000)),
+    };
+    const km = (d: number) => 52.0 + d / 111.2; // 1° of latitude ≈ 111.2 km
+    const ids: number[] = [];
+    for (const [d, start] of [
+      [200, "2030-03-01"],
+      [10, "2030-05-01"],
+      [60, "2030-01-15"],
+    ] as const) {
+      const [id] = await knex("requests").insert({
+        ...base,
+        site_lat: km(d),
+        site_lng: -3.5,
+        window_start: start,
+        window_end: "2030-06-30",
+      });
+      ids.push(Number(id));
+    }
+    const near = await listBoard(knex, verified, q({ withinKm: "100" }));
+    expect(near.items.map((i) => i.id).sort()).toEqual([ids[1], ids[2]].sort());
+    const byDistance = await all({ sort: "distance" });
+    expect(byDistance.slice(0, 3).map((i) => i.id)).toEqual([ids[1], ids[2], ids[0]]);
+    expect(byDistance[0]!.distanceKm).toBeCloseTo(10, 0);
+    const soonest = await all({ sort: "soonest" });
+    const mine = soonest.filter((i) => ids.includes(i.id)).map((i) => i.id);
+    expect(mine).toEqual([ids[2], ids[0], ids[1]]);
+  });
+
   it("is served by an index, not a table scan", async () => {
     const cases: Record<string, string>[] = [
       {},
