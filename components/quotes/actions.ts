@@ -66,8 +66,12 @@ export async function acceptQuoteAction(
   return { ok: true, message: "Accepted. Payment into held funds comes next." };
 }
 
-export async function declineQuoteAction(requestId: number, quoteId: number): Promise<void> {
+export async function declineQuoteAction(
+  requestId: number,
+  quoteId: number,
+  formData: FormData,
+): Promise<void> {
   const user = await actor();
-  await declineQuote(db(), user, quoteId, undefined);
+  await declineQuote(db(), user, quoteId, String(formData.get("reason") ?? "") || undefined);
   revalidatePath(`/requests/${requestId}`);
 }

@@ -72,6 +72,12 @@ export function QuoteTable({
       header: "Rating",
       cell: (c) => (c.row.original.rating ? `${c.row.original.rating.toFixed(1)} / 5` : "—"),
     }),
+    col.accessor((q) => q.distanceKm ?? Number.MAX_SAFE_INTEGER, {
+      id: "distance",
+      header: "Distance",
+      sortDescFirst: false,
+      cell: (c) => (c.row.original.distanceKm !== null ? `${c.row.original.distanceKm} km` : "—"),
+    }),
     col.accessor("scopeMd", {
       header: "Scope",
       enableSorting: false,
@@ -92,7 +98,15 @@ export function QuoteTable({
         return (
           <div className="space-y-2">
             <AcceptButton requestId={requestId} quoteId={q.id} label={q.tradingName} />
-            <form action={declineQuoteAction.bind(null, requestId, q.id)}>
+            <form action={declineQuoteAction.bind(null, requestId, q.id)} className="space-y-1">
+              <label className="block text-xs text-slate-600">
+                Reason (optional, sent to the reviewer)
+                <input
+                  name="reason"
+                  maxLength={1000}
+                  className="mt-1 block w-full rounded border border-slate-300 px-2 py-1 text-sm"
+                />
+              </label>
               <Button type="submit" variant="ghost" className="min-h-11">
                 Decline
               </Button>

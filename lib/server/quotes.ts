@@ -4,6 +4,7 @@ import { z } from "zod";
 import { quoteSchema, type QuoteInput } from "@/lib/validation/quote";
 import { notifyNewQuote, notifyQuoteAccepted, notifyQuoteDeclined } from "@/lib/mail/notify";
 import { env } from "@/lib/env";
+import { haversineKm } from "@/lib/geo";
 import { conflict, forbidden, notFound, unprocessable } from "./errors";
 import { isVerifiedReviewer, type Actor } from "./reviewers";
 
@@ -113,6 +114,8 @@ export interface QuoteForHomeowner {
   proposedVisitDate: string | null;
   status: string;
   rating: number | null;
+  /** From the reviewer's centre to the site, when both are known. */
+  distanceKm: number | null;
 }
 
 /** The live quotes on one's own request; quotes from suspended or no-longer-verified reviewers are hidden. */
@@ -122,7 +125,9 @@ export async function listQuotesForHomeowner(
   requestId: number,
 ): Promise<QuoteForHomeowner[]> {
   if (actor.role !== "homeowner") throw forbidden();
-  const r = await knex("requests").where({ id: requestId, homeowner_id: actor.id }).first("id");
+  const r = await knex("requests")
+    .where({ id: requestId, homeowner_id: actor.id })
+    .first("id", "site_lat", "site_lng");
   if (!r) throw notFound("No such request.");
   const rows = await knex("quotes as q")
     .join("reviewer_profiles as p", "p.user_id", "q.reviewer_id")
@@ -132,6 +137,8 @@ export async function listQuotesForHomeowner(
     .select(
       "q.*",
       "p.trading_name",
+      "p.centre_lat",
+      "p.centre_lng",
       "p.years_in_trade",
       knex.raw("(SELECT AVG(stars) FROM ratings WHERE ratee_id = q.reviewer_id) AS rating"),
     );
@@ -150,6 +157,15 @@ export async function listQuotesForHomeowner(
       proposedVisitDate: q.proposed_visit_date,
       status: q.status,
       rating: q.rating === null ? null : Number(q.rating),
+      distanceKm:
+        r.site_lat != null && q.centre_lat != null
+          ? Math.round(
+              haversineKm(
+                { lat: Number(q.centre_lat), lng: Number(q.centre_lng) },
+                { lat: Number(r.site_lat), lng: Number(r.site_lng) },
+              ),
+            )
+          : null,
     });
   }
   return out.sort((a, b) => a.priceMinor - b.priceMinor);
