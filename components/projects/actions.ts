@@ -12,6 +12,7 @@ import {
   deleteProject,
   removeProjectFile,
   saveProjectSection,
+  updateRequest,
 } from "@/lib/server/projects";
 import { utapi } from "@/lib/server/uploads/config";
 import { systemSections, type SystemSection } from "@/lib/validation/system";
@@ -110,4 +111,23 @@ export async function removeProject(projectId: number): Promise<void> {
   const keys = await deleteProject(db(), user, projectId);
   if (keys.length) await utapi().deleteFiles(keys);
   redirect("/dashboard");
+}
+
+export async function editRequest(
+  projectId: number,
+  requestId: number,
+  _prev: ProjectActionState,
+  formData: FormData,
+): Promise<ProjectActionState> {
+  const user = await actor();
+  const values = Object.fromEntries(
+    [...formData.entries()].filter(([k]) => !k.startsWith("$")).map(([k, v]) => [k, String(v)]),
+  );
+  try {
+    await updateRequest(db(), user, requestId, values as unknown as RequestInput);
+  } catch (err) {
+    return failure(err, values);
+  }
+  revalidatePath(`/projects/${projectId}`);
+  return { ok: true, message: "Request updated." };
 }

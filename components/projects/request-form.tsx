@@ -4,17 +4,23 @@ import { useActionState, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field, inputClass } from "@/components/ui/field";
 import { FormField } from "@/components/ui/form-field";
-import { postRequest, type ProjectActionState } from "./actions";
+import { editRequest, postRequest, type ProjectActionState } from "./actions";
 
-export function RequestForm({ projectId }: { projectId: number }) {
+export interface RequestFormProps {
+  projectId: number;
+  /** The open request to edit, as form values; absent to post a new one. */
+  existing?: { id: number; values: Record<string, string> };
+}
+
+export function RequestForm({ projectId, existing }: RequestFormProps) {
   const [state, action, pending] = useActionState<ProjectActionState, FormData>(
-    postRequest.bind(null, projectId),
+    existing ? editRequest.bind(null, projectId, existing.id) : postRequest.bind(null, projectId),
     { ok: false },
   );
-  const v = state.ok ? undefined : state.values;
+  const v = state.ok ? existing?.values : (state.values ?? existing?.values);
   const [kind, setKind] = useState(v?.kind ?? "remote_check");
   const e = state.fieldErrors;
-  if (state.ok)
+  if (state.ok && !existing)
     return (
       <p role="status" className="rounded-lg bg-level-ok-bg p-4 text-level-ok">
         {state.message}
@@ -126,11 +132,16 @@ export function RequestForm({ projectId }: { projectId: number }) {
           </Field>
         </div>
       ) : null}
-      <p aria-live="polite" className="text-sm font-medium text-level-stop">
+      <p
+        aria-live="polite"
+        className={
+          state.ok ? "text-sm font-medium text-level-ok" : "text-sm font-medium text-level-stop"
+        }
+      >
         {state.message ?? ""}
       </p>
       <Button type="submit" disabled={pending}>
-        {pending ? "Posting…" : "Post the request"}
+        {pending ? "Saving…" : existing ? "Save changes" : "Post the request"}
       </Button>
     </form>
   );

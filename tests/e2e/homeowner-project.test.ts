@@ -156,6 +156,15 @@ describe("a homeowner goes from an empty account to an open request with a sketc
       region: "south-west",
       status: "open",
     });
+    // Edit the open request.
+    await page.getByText("Edit this request").click();
+    await page.getByLabel("Budget up to").fill("160");
+    await page.getByRole("button", { name: "Save changes" }).click();
+    await page.getByText("Request updated.").waitFor();
+    expect(
+      (await knex("requests").where({ project_id: projectId }).first("budget_max_minor"))
+        .budget_max_minor,
+    ).toBe(16000);
     await page.screenshot({ path: `${shots}/homeowner-project.png`, fullPage: true });
 
     // Files are private: another homeowner gets 403, a verified reviewer may look while the request is open.

@@ -103,10 +103,32 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
           </ul>
         ) : null}
         {open ? (
-          <p role="status" className="rounded-lg bg-level-ok-bg p-3 text-level-ok">
-            Your request is on the board. Verified reviewers can now quote; you will get an e-mail
-            for each quote.
-          </p>
+          <div className="space-y-3">
+            <p role="status" className="rounded-lg bg-level-ok-bg p-3 text-level-ok">
+              Your request is on the board. Verified reviewers can now quote; you will get an e-mail
+              for each quote.
+            </p>
+            <details>
+              <summary className="min-h-11 cursor-pointer py-2 font-semibold">
+                Edit this request
+              </summary>
+              <RequestForm
+                projectId={project.id}
+                existing={{
+                  id: open.id,
+                  values: {
+                    kind: open.kind,
+                    questions: open.questions,
+                    budgetMinPounds: String(open.budgetMinMinor / 100),
+                    budgetMaxPounds: String(open.budgetMaxMinor / 100),
+                    windowStart: open.windowStart ?? "",
+                    windowEnd: open.windowEnd ?? "",
+                    accessNotes: open.accessNotes ?? "",
+                  },
+                }}
+              />
+            </details>
+          </div>
         ) : complete ? (
           <RequestForm projectId={project.id} />
         ) : (
