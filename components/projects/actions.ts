@@ -2,8 +2,7 @@
 
 import { revalidatePath } from "next/cache";
 import { redirect } from "next/navigation";
-import { HttpError } from "@/lib/server/errors";
-import { getCurrentUser } from "@/lib/server/auth/session";
+import { actionFailure, actionUser, formValues, type ActionState } from "@/lib/server/action-state";
 import { db } from "@/lib/server/db";
 import {
   cancelRequest,
@@ -18,41 +17,19 @@ import { utapi } from "@/lib/server/uploads/config";
 import { systemSections, type SystemSection } from "@/lib/validation/system";
 import type { RequestInput } from "@/lib/validation/request";
 
-export interface ProjectActionState {
-  ok: boolean;
-  message?: string;
-  fieldErrors?: Record<string, string[]>;
-  values?: Record<string, string>;
-}
-
-async function actor() {
-  const user = await getCurrentUser();
-  if (!user) redirect("/sign-in");
-  return user;
-}
-
-function failure(err: unknown, values?: Record<string, string>): ProjectActionState {
-  if (err instanceof HttpError)
-    return { ok: false, message: err.message, fieldErrors: err.fieldErrors, values };
-  console.error(err);
-  return {
-    ok: false,
-    message: "Something went wrong on our side; what you typed is still here. Please try again.",
-    values,
-  };
-}
+export type ProjectActionState = ActionState;
 
 export async function startProject(
   _prev: ProjectActionState,
   formData: FormData,
 ): Promise<ProjectActionState> {
-  const user = await actor();
+  const user = await actionUser();
   const title = String(formData.get("title") ?? "");
   let id: number;
   try {
     id = await createProject(db(), user, { title });
   } catch (err) {
-    return failure(err, { title });
+    return actionFailure(err, { title });
   }
   redirect(`/projects/${id}/edit/site`);
 }
@@ -63,13 +40,13 @@ export async function saveStep(
   step: string,
   value: unknown,
 ): Promise<ProjectActionState> {
-  const user = await actor();
+  const user = await actionUser();
   if (!(systemSections as readonly string[]).includes(step))
     return { ok: false, message: "Unknown step." };
   try {
     await saveProjectSection(db(), user, projectId, step as SystemSection, value);
   } catch (err) {
-    return failure(err);
+    return actionFailure(err);
   }
   revalidatePath(`/projects/${projectId}`);
   return { ok: true, message: "Saved." };
@@ -80,34 +57,32 @@ export async function postRequest(
   _prev: ProjectActionState,
   formData: FormData,
 ): Promise<ProjectActionState> {
-  const user = await actor();
-  const values = Object.fromEntries(
-    [...formData.entries()].filter(([k]) => !k.startsWith("$")).map(([k, v]) => [k, String(v)]),
-  );
+  const user = await actionUser();
+  const values = formValues(formData);
   try {
     await createRequest(db(), user, projectId, values as unknown as RequestInput);
   } catch (err) {
-    return failure(err, values);
+    return actionFailure(err, values);
   }
   revalidatePath(`/projects/${projectId}`);
   return { ok: true, message: "Your request is on the board. Verified reviewers can now quote." };
 }
 
 export async function withdrawRequest(projectId: number, requestId: number): Promise<void> {
-  const user = await actor();
+  const user = await actionUser();
   await cancelRequest(db(), user, requestId);
   revalidatePath(`/projects/${projectId}`);
 }
 
 export async function deleteFile(projectId: number, attachmentId: number): Promise<void> {
-  const user = await actor();
+  const user = await actionUser();
   const key = await removeProjectFile(db(), user, attachmentId);
   await utapi().deleteFiles(key);
   revalidatePath(`/projects/${projectId}`);
 }
 
 export async function removeProject(projectId: number): Promise<void> {
-  const user = await actor();
+  const user = await actionUser();
   const keys = await deleteProject(db(), user, projectId);
   if (keys.length) await utapi().deleteFiles(keys);
   redirect("/dashboard");
@@ -119,14 +94,12 @@ export async function editRequest(
   _prev: ProjectActionState,
   formData: FormData,
 ): Promise<ProjectActionState> {
-  const user = await actor();
-  const values = Object.fromEntries(
-    [...formData.entries()].filter(([k]) => !k.startsWith("$")).map(([k, v]) => [k, String(v)]),
-  );
+  const user = await actionUser();
+  const values = formValues(formData);
   try {
     await updateRequest(db(), user, requestId, values as unknown as RequestInput);
   } catch (err) {
-    return failure(err, values);
+    return actionFailure(err, values);
   }
   revalidatePath(`/projects/${projectId}`);
   return { ok: true, message: "Request updated." };

@@ -1,52 +1,30 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
-import { redirect } from "next/navigation";
-import { HttpError } from "@/lib/server/errors";
-import { getCurrentUser } from "@/lib/server/auth/session";
+import { actionFailure, actionUser, formValues, type ActionState } from "@/lib/server/action-state";
 import { db } from "@/lib/server/db";
 import { acceptQuote, declineQuote, submitQuote, withdrawQuote } from "@/lib/server/quotes";
 
-export interface QuoteActionState {
-  ok: boolean;
-  message?: string;
-  fieldErrors?: Record<string, string[]>;
-  values?: Record<string, string>;
-}
-
-async function actor() {
-  const user = await getCurrentUser();
-  if (!user) redirect("/sign-in");
-  return user;
-}
-
-function failure(err: unknown, values?: Record<string, string>): QuoteActionState {
-  if (err instanceof HttpError)
-    return { ok: false, message: err.message, fieldErrors: err.fieldErrors, values };
-  console.error(err);
-  return { ok: false, message: "Something went wrong on our side. Please try again.", values };
-}
+export type QuoteActionState = ActionState;
 
 export async function sendQuote(
   requestId: number,
   _prev: QuoteActionState,
   formData: FormData,
 ): Promise<QuoteActionState> {
-  const user = await actor();
-  const values = Object.fromEntries(
-    [...formData.entries()].filter(([k]) => !k.startsWith("$")).map(([k, v]) => [k, String(v)]),
-  );
+  const user = await actionUser();
+  const values = formValues(formData);
   try {
     await submitQuote(db(), user, requestId, values as never);
   } catch (err) {
-    return failure(err, values);
+    return actionFailure(err, values);
   }
   revalidatePath(`/requests/${requestId}`);
   return { ok: true, message: "Quote sent. The homeowner gets an e-mail." };
 }
 
 export async function takeBackQuote(requestId: number, quoteId: number): Promise<void> {
-  const user = await actor();
+  const user = await actionUser();
   await withdrawQuote(db(), user, quoteId);
   revalidatePath(`/requests/${requestId}`);
 }
@@ -56,11 +34,11 @@ export async function acceptQuoteAction(
   quoteId: number,
   _prev: QuoteActionState,
 ): Promise<QuoteActionState> {
-  const user = await actor();
+  const user = await actionUser();
   try {
     await acceptQuote(db(), user, quoteId);
   } catch (err) {
-    return failure(err);
+    return actionFailure(err);
   }
   revalidatePath(`/requests/${requestId}`);
   return { ok: true, message: "Accepted. Payment into held funds comes next." };
@@ -71,7 +49,7 @@ export async function declineQuoteAction(
   quoteId: number,
   formData: FormData,
 ): Promise<void> {
-  const user = await actor();
+  const user = await actionUser();
   await declineQuote(db(), user, quoteId, String(formData.get("reason") ?? "") || undefined);
   revalidatePath(`/requests/${requestId}`);
 }

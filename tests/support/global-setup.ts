@@ -9,11 +9,13 @@ import type { TestProject } from "vitest/node";
 import { startMailFake } from "../../mocks/mail/server";
 import { startUploadFake } from "../../mocks/uploads/server";
 
-const PORT = Number(process.env.E2E_PORT ?? 3100);
-// The test stack uses its own ports so it can run beside `npm start`.
-const MAIL_SMTP_PORT = 2526;
-const MAIL_HTTP_PORT = 2581;
-const UPLOAD_PORT = 2591;
+// The test stack uses its own ports so it can run beside `npm start`; TEST_PORT_OFFSET shifts
+// them all, so two checkouts can run their suites on one machine at once.
+const OFFSET = Number(process.env.TEST_PORT_OFFSET ?? 0);
+const PORT = Number(process.env.E2E_PORT ?? 3100 + OFFSET);
+const MAIL_SMTP_PORT = 2526 + OFFSET;
+const MAIL_HTTP_PORT = 2581 + OFFSET;
+const UPLOAD_PORT = 2591 + OFFSET;
 
 async function waitFor(url: string, ms: number): Promise<void> {
   const until = Date.now() + ms;
