@@ -7,6 +7,8 @@ const nextConfig = {
   turbopack: { root: fileURLToPath(new URL(".", import.meta.url)) },
   poweredByHeader: false,
   typedRoutes: false,
+  // forbidden() and unauthorized() from next/navigation render our own 403 and 401 pages.
+  experimental: { authInterrupts: true },
 };
 
 export default nextConfig;

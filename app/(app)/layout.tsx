@@ -3,9 +3,9 @@ import { AppHeader, navFor } from "@/components/layout/app-header";
 import { SiteFooter } from "@/components/layout/site-header";
 import { Providers } from "@/components/providers";
 import { getCurrentUser } from "@/lib/server/auth/session";
-import { isVerifiedReviewer } from "@/lib/server/reviewers";
+import { isVerifiedReviewer } from "@/lib/data/reviewers";
 import { db } from "@/lib/server/db";
-import { countUnread } from "@/lib/server/messages";
+import { countUnread } from "@/lib/data/messages";
 
 export default async function AppLayout({ children }: { children: React.ReactNode }) {
   // The layout only draws the shell; each page checks access for itself.
@@ -13,7 +13,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
   if (!user) redirect("/sign-in");
   const [verified, unread] = await Promise.all([
     user.role === "reviewer" ? isVerifiedReviewer(db(), user.id) : false,
-    user.role === "admin" ? 0 : countUnread(db(), user.id),
+    user.role === "admin" ? 0 : countUnread(db(), user),
   ]);
   return (
     <>

@@ -1,75 +1,48 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
-import { HttpError } from "@/lib/server/errors";
-import { getCurrentUser } from "@/lib/server/auth/session";
+import { z } from "zod";
+import { formValues, runAction, type ActionState } from "@/lib/server/action";
 import { db } from "@/lib/server/db";
-import { decideCredential, setSuspension } from "@/lib/server/reviewers";
+import { idSchema } from "@/lib/data/errors";
+import { decideCredential, setSuspension } from "@/lib/data/reviewers";
 import { env } from "@/lib/env";
 
-export interface AdminFormState {
-  ok: boolean;
-  message?: string;
-  fieldErrors?: Record<string, string[]>;
-}
-
-async function asAdmin(
-  work: (actor: { id: number; role: "admin" }) => Promise<void>,
-  paths: string[],
-  done: string,
-): Promise<AdminFormState> {
-  const user = await getCurrentUser();
-  if (!user || user.role !== "admin") return { ok: false, message: "Only admins can do this." };
-  try {
-    await work({ id: user.id, role: "admin" });
-  } catch (err) {
-    if (err instanceof HttpError)
-      return { ok: false, message: err.message, fieldErrors: err.fieldErrors };
-    console.error(err);
-    return { ok: false, message: "Something went wrong on our side. Please try again." };
-  }
-  for (const p of paths) revalidatePath(p);
-  return { ok: true, message: done };
-}
+export type AdminFormState = ActionState;
 
 export async function decideCredentialAction(
-  _prev: AdminFormState,
+  _prev: ActionState,
   formData: FormData,
-): Promise<AdminFormState> {
-  const decision = String(formData.get("decision"));
-  const input =
-    decision === "verify"
-      ? {
-          decision: "verify" as const,
-          credentialId: Number(formData.get("credentialId")),
-          expiresOn: String(formData.get("expiresOn") ?? ""),
-        }
-      : {
-          decision: "reject" as const,
-          credentialId: Number(formData.get("credentialId")),
-          reason: String(formData.get("reason") ?? ""),
-        };
-  return asAdmin(
-    (actor) => decideCredential(db(), actor, input, env().APP_URL),
-    ["/admin/credentials"],
-    decision === "verify" ? "Verified." : "Rejected.",
-  );
+): Promise<ActionState> {
+  const values = formValues(formData);
+  return runAction({
+    roles: ["admin"],
+    schema: z.object({ decision: z.enum(["verify", "reject"]) }),
+    input: values,
+    values,
+    run: (actor) => decideCredential(db(), actor, values, env().APP_URL),
+    done: values.decision === "verify" ? "Verified." : "Rejected.",
+    after: () => revalidatePath("/admin/credentials"),
+  });
 }
 
 export async function suspensionAction(
-  _prev: AdminFormState,
+  _prev: ActionState,
   formData: FormData,
-): Promise<AdminFormState> {
-  const reviewerId = Number(formData.get("reviewerId"));
-  const suspend = formData.get("suspend") === "1";
-  return asAdmin(
-    (actor) =>
+): Promise<ActionState> {
+  const values = formValues(formData);
+  return runAction({
+    roles: ["admin"],
+    schema: z.object({ reviewerId: idSchema, suspend: z.enum(["0", "1"]) }),
+    input: values,
+    values,
+    run: (actor, v) =>
       setSuspension(db(), actor, {
-        reviewerId,
-        suspend,
-        reason: String(formData.get("reason") ?? ""),
+        reviewerId: v.reviewerId,
+        suspend: v.suspend === "1",
+        reason: values.reason ?? "",
       }),
-    [`/admin/reviewers/${reviewerId}`],
-    suspend ? "Reviewer suspended." : "Reviewer reinstated.",
-  );
+    done: (_r) => (values.suspend === "1" ? "Reviewer suspended." : "Reviewer reinstated."),
+    after: (_r, v) => revalidatePath(`/admin/reviewers/${v.reviewerId}`),
+  });
 }

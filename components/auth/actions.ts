@@ -1,32 +1,42 @@
 "use server";
 
+import { redirect } from "next/navigation";
 import {
   createAccount,
   requestPasswordReset,
+  resendVerification,
   resetPassword,
-  type FieldErrors,
-} from "@/lib/server/accounts";
+  verifyEmail,
+} from "@/lib/data/accounts";
+import { failure, runAction, type ActionState } from "@/lib/server/action";
 import { db } from "@/lib/server/db";
 import { env } from "@/lib/env";
-import type { ForgotPasswordInput, ResetPasswordInput, SignUpInput } from "@/lib/validation/auth";
 import { forgotPasswordSchema } from "@/lib/validation/auth";
+import { fieldErrorsOf } from "@/lib/data/errors";
+import { z } from "zod";
 
-export type ActionState = { ok: boolean; message?: string; fieldErrors?: FieldErrors };
+export type { ActionState } from "@/lib/server/action";
 
-export async function signUp(input: SignUpInput): Promise<ActionState> {
+// Sign-up, password reset and e-mail confirmation are for people who are not signed in, so they
+// do not go through runAction (which needs an actor); they keep its answer shape.
+
+export async function signUp(input: unknown): Promise<ActionState> {
   try {
-    const r = await createAccount(db(), input, env().APP_URL);
-    return r.ok ? { ok: true } : { ok: false, message: r.message, fieldErrors: r.fieldErrors };
+    await createAccount(db(), input, env().APP_URL);
+    return { ok: true };
   } catch (err) {
-    console.error("signUp failed", err);
-    return { ok: false, message: "We could not create the account just now. Please try again." };
+    return failure(err);
   }
 }
 
-export async function requestReset(input: ForgotPasswordInput): Promise<ActionState> {
+export async function requestReset(input: unknown): Promise<ActionState> {
   const parsed = forgotPasswordSchema.safeParse(input);
   if (!parsed.success)
-    return { ok: false, fieldErrors: { email: ["Enter a valid e-mail address"] } };
+    return {
+      ok: false,
+      message: "Some details need attention.",
+      fieldErrors: fieldErrorsOf(parsed.error),
+    };
   try {
     await requestPasswordReset(db(), parsed.data.email, env().APP_URL);
   } catch (err) {
@@ -39,14 +49,30 @@ export async function requestReset(input: ForgotPasswordInput): Promise<ActionSt
   };
 }
 
-export async function chooseNewPassword(input: ResetPasswordInput): Promise<ActionState> {
+export async function chooseNewPassword(input: unknown): Promise<ActionState> {
   try {
-    const r = await resetPassword(db(), input);
-    return r.ok
-      ? { ok: true, message: "Your password is changed. You can sign in now." }
-      : { ok: false, message: r.message, fieldErrors: r.fieldErrors };
+    await resetPassword(db(), input);
+    return { ok: true, message: "Your password is changed. You can sign in now." };
   } catch (err) {
-    console.error("resetPassword failed", err);
-    return { ok: false, message: "We could not change the password just now. Please try again." };
+    return failure(err);
   }
+}
+
+/** The confirmation page's button: the link's token confirms the address. */
+export async function confirmEmail(formData: FormData): Promise<void> {
+  const ok = await verifyEmail(db(), String(formData.get("token") ?? ""));
+  redirect(ok ? "/verify-email?done=1" : "/verify-email?failed=1");
+}
+
+/** The dashboard banner's button: a fresh confirmation link. */
+export async function resendConfirmation(
+  _prev: ActionState,
+  _formData: FormData,
+): Promise<ActionState> {
+  return runAction({
+    schema: z.object({}),
+    input: {},
+    run: (actor) => resendVerification(db(), actor, env().APP_URL),
+    done: "A new confirmation link is on its way: check the inbox.",
+  });
 }

@@ -4,21 +4,15 @@ import { useInfiniteQuery } from "@tanstack/react-query";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { REGIONS, regionName } from "@/lib/regions";
 import { formatMoney } from "@/lib/money";
-import type { BoardPage } from "@/lib/server/board";
+import type { BoardPage } from "@/lib/types/board";
 import type { Level } from "@/lib/calc/findings";
+import { BOARD_FILTERS } from "@/lib/validation/board";
 import { Button } from "@/components/ui/button";
 import { inputClass } from "@/components/ui/field";
 import { LevelBadge } from "@/components/loop-check/level-badge";
 
-const FILTERS = [
-  "kind",
-  "collectorType",
-  "region",
-  "budgetMin",
-  "budgetMax",
-  "postedWithinDays",
-  "sort",
-] as const;
+// Read from the shared schema, so a new filter cannot be dropped on its way to the route.
+const FILTERS = BOARD_FILTERS;
 
 async function fetchPage(params: URLSearchParams, cursor: string | null): Promise<BoardPage> {
   const q = new URLSearchParams(params);
@@ -27,8 +21,8 @@ async function fetchPage(params: URLSearchParams, cursor: string | null): Promis
   const body = await res.json();
   if (!res.ok) {
     const fields = body.fieldErrors
-      ? Object.entries(body.fieldErrors as Record<string, string[]>)
-          .map(([k, v]) => `${k}: ${v[0]}`)
+      ? Object.values(body.fieldErrors as Record<string, string[]>)
+          .map((v) => v[0])
           .join("; ")
       : "";
     throw new Error(`${body.error ?? "The board could not be loaded."} ${fields}`.trim());

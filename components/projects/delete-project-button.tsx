@@ -1,26 +1,19 @@
 "use client";
 
-import { useTransition } from "react";
+import { ActionForm } from "@/components/ui/action-form";
 import { removeProject } from "./actions";
 
 /** Deletes the project, its open request and its files, after the person confirms. */
 export function DeleteProjectButton({ projectId }: { projectId: number }) {
-  const [pending, start] = useTransition();
   return (
-    <button
-      type="button"
-      disabled={pending}
-      className="min-h-11 rounded-lg border border-level-stop px-4 font-semibold text-level-stop hover:bg-level-stop-bg"
-      onClick={() => {
-        if (
-          window.confirm(
-            "Delete this project, its request, sketch and photos? This cannot be undone.",
-          )
-        )
-          start(() => removeProject(projectId));
-      }}
-    >
-      {pending ? "Deleting…" : "Delete this project"}
-    </button>
+    <ActionForm
+      action={removeProject}
+      fields={{ projectId }}
+      submitLabel="Delete this project"
+      pendingLabel="Deleting…"
+      confirm="Delete this project, its request, sketch and photos? This cannot be undone."
+      variant="secondary"
+      buttonClassName="border-level-stop text-level-stop hover:bg-level-stop-bg"
+    />
   );
 }

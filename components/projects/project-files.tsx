@@ -1,12 +1,13 @@
 "use client";
 
-import { useState, useTransition } from "react";
+import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { Upload } from "lucide-react";
-import type { ProjectFile } from "@/lib/server/projects";
+import type { ProjectFile } from "@/lib/types/projects";
 import { PHOTO_TAGS } from "@/lib/validation/request";
 import { inputClass } from "@/components/ui/field";
 import { useUploadThing } from "@/components/uploads/helpers";
+import { ActionForm } from "@/components/ui/action-form";
 import { deleteFile } from "./actions";
 
 const TAG_LABELS: Record<string, string> = {
@@ -63,7 +64,6 @@ export function ProjectFiles({ projectId, files }: { projectId: number; files: P
   const [message, setMessage] = useState<{ ok: boolean; text: string } | null>(null);
   const [caption, setCaption] = useState("");
   const [tag, setTag] = useState<(typeof PHOTO_TAGS)[number]>("collector");
-  const [pending, startTransition] = useTransition();
   const done = (
     files: { serverData: { ok: true; attachmentId: number } | { ok: false; error: string } }[],
   ) => {
@@ -165,14 +165,15 @@ export function ProjectFiles({ projectId, files }: { projectId: number; files: P
               {f.purpose === "sketch" ? "System sketch" : TAG_LABELS[f.tag ?? "other"]}
             </p>
             <p className="text-sm text-slate-600">{f.caption ?? f.fileName}</p>
-            <button
-              type="button"
-              disabled={pending}
-              onClick={() => startTransition(() => deleteFile(projectId, f.id))}
-              className="mt-2 min-h-11 rounded-lg px-3 text-sm font-semibold text-level-stop hover:bg-level-stop-bg"
-            >
-              Delete
-            </button>
+            <ActionForm
+              action={deleteFile}
+              fields={{ projectId, attachmentId: f.id }}
+              submitLabel="Delete"
+              pendingLabel="Deleting…"
+              buttonAriaLabel={`Delete ${f.caption ?? f.fileName}`}
+              className="mt-2"
+              buttonClassName="text-sm text-level-stop hover:bg-level-stop-bg"
+            />
           </li>
         ))}
       </ul>

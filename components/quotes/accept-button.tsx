@@ -1,8 +1,7 @@
 "use client";
 
-import { useActionState } from "react";
-import { Button } from "@/components/ui/button";
-import { acceptQuoteAction, type QuoteActionState } from "./actions";
+import { ActionForm } from "@/components/ui/action-form";
+import { acceptQuoteAction } from "./actions";
 
 export function AcceptButton({
   requestId,
@@ -13,26 +12,14 @@ export function AcceptButton({
   quoteId: number;
   label: string;
 }) {
-  const [state, action, pending] = useActionState<QuoteActionState>(
-    acceptQuoteAction.bind(null, requestId, quoteId),
-    { ok: false },
-  );
   return (
-    <form action={action}>
-      <Button
-        type="submit"
-        disabled={pending}
-        aria-label={`Accept the quote from ${label}`}
-        className="min-h-11"
-      >
-        {pending ? "Accepting…" : "Accept"}
-      </Button>
-      <p
-        aria-live="polite"
-        className={state.ok ? "text-sm text-level-ok" : "text-sm text-level-stop"}
-      >
-        {state.message ?? ""}
-      </p>
-    </form>
+    <ActionForm
+      action={acceptQuoteAction}
+      fields={{ requestId, quoteId }}
+      submitLabel="Accept"
+      pendingLabel="Accepting…"
+      variant="primary"
+      buttonAriaLabel={`Accept the quote from ${label}`}
+    />
   );
 }

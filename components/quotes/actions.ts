@@ -1,55 +1,70 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
-import { actionFailure, actionUser, formValues, type ActionState } from "@/lib/server/action-state";
+import { z } from "zod";
+import { formValues, runAction, type ActionState } from "@/lib/server/action";
 import { db } from "@/lib/server/db";
-import { acceptQuote, declineQuote, submitQuote, withdrawQuote } from "@/lib/server/quotes";
+import { idSchema } from "@/lib/data/errors";
+import { acceptQuote, declineQuote, submitQuote, withdrawQuote } from "@/lib/data/quotes";
 
 export type QuoteActionState = ActionState;
 
+const quoteIds = z.object({ requestId: idSchema, quoteId: idSchema });
+
 export async function sendQuote(
   requestId: number,
-  _prev: QuoteActionState,
+  _prev: ActionState,
   formData: FormData,
-): Promise<QuoteActionState> {
-  const user = await actionUser();
+): Promise<ActionState> {
   const values = formValues(formData);
-  try {
-    await submitQuote(db(), user, requestId, values as never);
-  } catch (err) {
-    return actionFailure(err, values);
-  }
-  revalidatePath(`/requests/${requestId}`);
-  return { ok: true, message: "Quote sent. The homeowner gets an e-mail." };
+  return runAction({
+    roles: ["reviewer"],
+    schema: z.object({ requestId: idSchema }),
+    input: { requestId },
+    values,
+    run: (actor, ids) => submitQuote(db(), actor, ids.requestId, values),
+    done: "Quote sent. The homeowner gets an e-mail.",
+    after: (_r, ids) => revalidatePath(`/requests/${ids.requestId}`),
+  });
 }
 
-export async function takeBackQuote(requestId: number, quoteId: number): Promise<void> {
-  const user = await actionUser();
-  await withdrawQuote(db(), user, quoteId);
-  revalidatePath(`/requests/${requestId}`);
+export async function takeBackQuote(_prev: ActionState, formData: FormData): Promise<ActionState> {
+  return runAction({
+    roles: ["reviewer"],
+    schema: quoteIds,
+    input: formValues(formData),
+    run: (actor, ids) => withdrawQuote(db(), actor, ids.quoteId),
+    done: "Your quote is withdrawn.",
+    after: (_r, ids) => revalidatePath(`/requests/${ids.requestId}`),
+  });
 }
 
 export async function acceptQuoteAction(
-  requestId: number,
-  quoteId: number,
-  _prev: QuoteActionState,
-): Promise<QuoteActionState> {
-  const user = await actionUser();
-  try {
-    await acceptQuote(db(), user, quoteId);
-  } catch (err) {
-    return actionFailure(err);
-  }
-  revalidatePath(`/requests/${requestId}`);
-  return { ok: true, message: "Accepted. Payment into held funds comes next." };
+  _prev: ActionState,
+  formData: FormData,
+): Promise<ActionState> {
+  return runAction({
+    roles: ["homeowner"],
+    schema: quoteIds,
+    input: formValues(formData),
+    run: (actor, ids) => acceptQuote(db(), actor, ids.quoteId),
+    done: "Accepted. Next, pay into held funds from the job page.",
+    after: (_r, ids) => revalidatePath(`/requests/${ids.requestId}`),
+  });
 }
 
 export async function declineQuoteAction(
-  requestId: number,
-  quoteId: number,
+  _prev: ActionState,
   formData: FormData,
-): Promise<void> {
-  const user = await actionUser();
-  await declineQuote(db(), user, quoteId, String(formData.get("reason") ?? "") || undefined);
-  revalidatePath(`/requests/${requestId}`);
+): Promise<ActionState> {
+  const values = formValues(formData);
+  return runAction({
+    roles: ["homeowner"],
+    schema: quoteIds.extend({ reason: z.string().trim().max(1000).optional() }),
+    input: values,
+    values,
+    run: (actor, v) => declineQuote(db(), actor, v.quoteId, v.reason || undefined),
+    done: "Quote declined. The reviewer is told.",
+    after: (_r, ids) => revalidatePath(`/requests/${ids.requestId}`),
+  });
 }

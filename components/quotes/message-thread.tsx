@@ -3,7 +3,7 @@
 import { useState } from "react";
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
 import ReactMarkdown from "react-markdown";
-import type { Message } from "@/lib/server/messages";
+import type { Message } from "@/lib/types/messages";
 import { Button } from "@/components/ui/button";
 import { inputClass } from "@/components/ui/field";
 

@@ -11,9 +11,9 @@ import {
   useReactTable,
   type SortingState,
 } from "@tanstack/react-table";
-import type { QuoteForHomeowner } from "@/lib/server/quotes";
+import type { QuoteForHomeowner } from "@/lib/types/quotes";
 import { formatMoney } from "@/lib/money";
-import { Button } from "@/components/ui/button";
+import { ActionForm } from "@/components/ui/action-form";
 import { AcceptButton } from "./accept-button";
 import { declineQuoteAction } from "./actions";
 
@@ -98,7 +98,13 @@ export function QuoteTable({
         return (
           <div className="space-y-2">
             <AcceptButton requestId={requestId} quoteId={q.id} label={q.tradingName} />
-            <form action={declineQuoteAction.bind(null, requestId, q.id)} className="space-y-1">
+            <ActionForm
+              action={declineQuoteAction}
+              fields={{ requestId, quoteId: q.id }}
+              submitLabel="Decline"
+              pendingLabel="Declining…"
+              buttonAriaLabel={`Decline the quote from ${q.tradingName}`}
+            >
               <label className="block text-xs text-slate-600">
                 Reason (optional, sent to the reviewer)
                 <input
@@ -107,10 +113,7 @@ export function QuoteTable({
                   className="mt-1 block w-full rounded border border-slate-300 px-2 py-1 text-sm"
                 />
               </label>
-              <Button type="submit" variant="ghost" className="min-h-11">
-                Decline
-              </Button>
-            </form>
+            </ActionForm>
           </div>
         );
       },

@@ -3,7 +3,7 @@
 import { useActionState } from "react";
 import { REGIONS } from "@/lib/regions";
 import { SPECIALISMS } from "@/lib/validation/reviewer";
-import type { ReviewerProfile } from "@/lib/server/reviewers";
+import type { ReviewerProfile } from "@/lib/types/reviewers";
 import { Button } from "@/components/ui/button";
 import { Field, inputClass } from "@/components/ui/field";
 import { FormField } from "@/components/ui/form-field";

@@ -21,3 +21,13 @@ export function decodeUploadToken(token: string): { apiKey: string; appId: strin
     throw new Error("UPLOADTHING_TOKEN must be base64 JSON with apiKey and appId");
   return { apiKey: parsed.apiKey, appId: parsed.appId };
 }
+
+/** At most this many live files of each kind per project. */
+export const PROJECT_FILE_LIMITS = { sketch: 3, photo: 20 } as const;
+
+/** The largest file of each kind, in bytes, checked against the stored bytes. */
+export const MAX_FILE_BYTES = {
+  credentialEvidence: 8 * 1024 * 1024,
+  sketch: 16 * 1024 * 1024,
+  photo: 16 * 1024 * 1024,
+} as const;

@@ -32,3 +32,8 @@ export const boardQuerySchema = z
     },
   );
 export type BoardQuery = z.output<typeof boardQuerySchema>;
+
+/** The filters a person sets on the board page: every field of the query but the paging ones. */
+export const BOARD_FILTERS = Object.keys(boardQuerySchema.shape).filter(
+  (k): k is Exclude<keyof BoardQuery, "cursor" | "limit"> => k !== "cursor" && k !== "limit",
+);

@@ -5,8 +5,7 @@
  *   tsx lib/worker/main.ts --task credential-expiry   run one task now (by hand), then exit
  */
 import { hostname } from "node:os";
-import knexFactory from "knex";
-import { knexConfig } from "@/knexfile";
+import { getDb } from "@/lib/data/db";
 import { parseEnv } from "@/lib/env";
 import { createTransport, sendBatch } from "./mail";
 import { runDueTasks, TASKS } from "./schedule";
@@ -15,7 +14,7 @@ const POLL_MS = 2000;
 
 async function main(): Promise<void> {
   const env = parseEnv();
-  const knex = knexFactory(knexConfig());
+  const db = getDb();
   const transport = createTransport({
     host: env.SMTP_HOST,
     port: env.SMTP_PORT,
@@ -36,17 +35,17 @@ async function main(): Promise<void> {
       const task = TASKS.find((t) => t.name === args[taskIndex + 1]);
       if (!task) throw new Error(`unknown task; known: ${TASKS.map((t) => t.name).join(", ")}`);
       console.log(
-        `[worker] ${task.name}: ${await task.run({ knex, now: new Date(), appUrl: env.APP_URL })}`,
+        `[worker] ${task.name}: ${await task.run({ db, now: new Date(), appUrl: env.APP_URL })}`,
       );
       return;
     }
     console.log(`[worker] ${workerId} started`);
     do {
       try {
-        const sent = await sendBatch(knex, transport, env.MAIL_FROM, workerId);
+        const sent = await sendBatch(db, transport, env.MAIL_FROM, workerId);
         if (sent.sent || sent.retried || sent.failed)
           console.log(`[worker] mail: ${JSON.stringify(sent)}`);
-        const ran = await runDueTasks({ knex, now: new Date(), appUrl: env.APP_URL }, workerId);
+        const ran = await runDueTasks({ db, now: new Date(), appUrl: env.APP_URL }, workerId);
         for (const [name, outcome] of Object.entries(ran))
           console.log(`[worker] ${name}: ${outcome}`);
       } catch (err) {
@@ -60,7 +59,7 @@ async function main(): Promise<void> {
     console.log("[worker] stopped");
   } finally {
     transport.close();
-    await knex.destroy();
+    await db.destroy();
   }
 }
 

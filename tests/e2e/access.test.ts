@@ -78,20 +78,39 @@ describe("access rules over HTTP, with real sessions", () => {
     }
   });
 
-  it("shows a 403 page for the wrong role", async () => {
-    const asHome = await (await get("/admin/credentials", "home")).text();
-    expect(asHome).toContain("Not available (403)");
-    const asReviewer = await (await get("/admin/reviewers/1", "sol")).text();
-    expect(asReviewer).toContain("Not available (403)");
-    const adminView = await (await get("/admin/credentials", "admin")).text();
-    expect(adminView).toContain("Verification queue");
-    expect(adminView).not.toContain("Not available (403)");
+  const REFUSED = "This page is not open to your account";
+
+  it("answers the wrong role with our 403 page and status 403", async () => {
+    const asHome = await get("/admin/credentials", "home");
+    expect(asHome.status).toBe(403);
+    expect(await asHome.text()).toContain(REFUSED);
+    const asReviewer = await get("/admin/reviewers/1", "sol");
+    expect(asReviewer.status).toBe(403);
+    expect(await asReviewer.text()).toContain(REFUSED);
+    const adminView = await get("/admin/credentials", "admin");
+    expect(adminView.status).toBe(200);
+    const html = await adminView.text();
+    expect(html).toContain("Verification queue");
+    expect(html).not.toContain(REFUSED);
+  });
+
+  it("answers an unknown page with our 404 page and status 404", async () => {
+    const missing = await get("/projects/999999", "home");
+    expect(missing.status).toBe(404);
+    expect(await missing.text()).toContain("We could not find that");
+    const nowhere = await get("/no-such-page");
+    expect(nowhere.status).toBe(404);
+    expect(await nowhere.text()).toContain("We could not find that page");
   });
 
   it("opens the board to verified reviewers only", async () => {
     expect(await (await get("/board", "sol")).text()).toContain("Request board");
-    expect(await (await get("/board", "dev")).text()).toContain("Not available (403)");
-    expect(await (await get("/board", "home")).text()).toContain("Not available (403)");
+    expect(await (await get("/board", "dev")).text()).toContain(
+      "The request board is not open to you yet",
+    );
+    const asHome = await get("/board", "home");
+    expect(asHome.status).toBe(403);
+    expect(await asHome.text()).toContain(REFUSED);
   });
 
   it("limits sign-in attempts per account with a 429", async () => {

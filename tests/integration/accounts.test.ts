@@ -6,9 +6,10 @@ import {
   verifyEmail,
   requestPasswordReset,
   resetPassword,
-} from "@/lib/server/accounts";
-import { issueToken } from "@/lib/server/auth/tokens";
-import { hit } from "@/lib/server/rate-limit";
+} from "@/lib/data/accounts";
+import { issueToken } from "@/lib/data/tokens";
+import { refusalOf } from "../support/status";
+import { hit } from "@/lib/data/rate-limit";
 import { testKnex, truncateAll } from "../support/db";
 
 const APP = "http://app.test";
@@ -43,7 +44,7 @@ describe("accounts against the real MariaDB", () => {
 
   it("signs up, stores only a bcrypt hash, and queues the verification e-mail in the same transaction", async () => {
     const r = await createAccount(knex, good, APP);
-    expect(r.ok).toBe(true);
+    expect(r).toMatchObject({ email: "ada@example.test", role: "homeowner" });
     const user = await knex("users").where({ email: "ada@example.test" }).first();
     expect(user.password_hash).toMatch(/^\$2[aby]\$/);
     expect(user.password_hash).not.toContain(good.password);
@@ -59,27 +60,25 @@ describe("accounts against the real MariaDB", () => {
 
   it("gives field errors for a duplicate address, a short password and a common password", async () => {
     await createAccount(knex, good, APP);
-    const dup = await createAccount(knex, { ...good, email: "ada@example.test" }, APP);
-    expect(dup.ok).toBe(false);
-    expect(!dup.ok && dup.fieldErrors.email?.[0]).toMatch(/already exists/);
-    const short = await createAccount(
-      knex,
-      { ...good, email: "b@example.test", password: "short" },
-      APP,
+    const dup = await refusalOf(createAccount(knex, { ...good, email: "ada@example.test" }, APP));
+    expect(dup.status).toBe(422);
+    expect(dup.fieldErrors?.email?.[0]).toMatch(/already exists/);
+    const short = await refusalOf(
+      createAccount(knex, { ...good, email: "b@example.test", password: "short" }, APP),
     );
-    expect(!short.ok && short.fieldErrors.password?.[0]).toMatch(/at least 10/);
-    const common = await createAccount(
-      knex,
-      { ...good, email: "c@example.test", password: "password123" },
-      APP,
+    expect(short.fieldErrors?.password?.[0]).toMatch(/at least 10/);
+    const common = await refusalOf(
+      createAccount(knex, { ...good, email: "c@example.test", password: "password123" }, APP),
     );
-    expect(!common.ok && common.fieldErrors.password?.[0]).toMatch(/common passwords/);
+    expect(common.fieldErrors?.password?.[0]).toMatch(/common passwords/);
     expect(await knex("users").count({ n: "*" })).toEqual([{ n: 1 }]);
   });
 
   it("cannot sign up as an admin", async () => {
-    const r = await createAccount(knex, { ...good, role: "admin" as never }, APP);
-    expect(r.ok).toBe(false);
+    const r = await refusalOf(createAccount(knex, { ...good, role: "admin" }, APP));
+    expect(r.status).toBe(422);
+    expect(r.fieldErrors?.role).toBeTruthy();
+    expect(await knex("users").count({ n: "*" })).toEqual([{ n: 0 }]);
   });
 
   it("authenticates with the right password only, and says nothing about which part was wrong", async () => {
@@ -118,29 +117,30 @@ describe("accounts against the real MariaDB", () => {
     expect(await knex("email_outbox").where({ template: "reset_password" })).toHaveLength(0);
     await requestPasswordReset(knex, "ada@example.test", APP);
     const token = await tokenFrom(knex, "ada@example.test", "reset_password");
-    const mismatch = await resetPassword(knex, {
+    const mismatch = await refusalOf(
+      resetPassword(knex, {
+        token,
+        password: "a-new-long-password",
+        confirm: "different-one-here",
+      }),
+    );
+    expect(mismatch.fieldErrors?.confirm).toBeTruthy();
+    await resetPassword(knex, {
       token,
       password: "a-new-long-password",
-      confirm: "different-one-here",
+      confirm: "a-new-long-password",
     });
-    expect(!mismatch.ok && mismatch.fieldErrors.confirm).toBeTruthy();
-    expect(
-      (
-        await resetPassword(knex, {
-          token,
-          password: "a-new-long-password",
-          confirm: "a-new-long-password",
-        })
-      ).ok,
-    ).toBe(true);
     expect(await authenticate(knex, "ada@example.test", "a-new-long-password")).not.toBeNull();
     expect(await authenticate(knex, "ada@example.test", good.password)).toBeNull();
-    const again = await resetPassword(knex, {
-      token,
-      password: "another-long-password",
-      confirm: "another-long-password",
-    });
-    expect(again.ok).toBe(false);
+    const again = await refusalOf(
+      resetPassword(knex, {
+        token,
+        password: "another-long-password",
+        confirm: "another-long-password",
+      }),
+    );
+    expect(again.status).toBe(422);
+    expect(again.message).toMatch(/expired or was already used/);
     expect(await knex("audit_log").where({ action: "user.password_reset" })).toHaveLength(1);
   });
 

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Knex } from "knex";
 import { seedDemo, DEMO_USERS } from "@/db/seeds/demo";
-import { buildBoardQuery, listBoard } from "@/lib/server/board";
+import { buildBoardQuery, listBoard } from "@/lib/data/board";
 import { boardQuerySchema } from "@/lib/validation/board";
 import { testKnex, truncateAll } from "../support/db";
 import { statusOf } from "../support/status";
@@ -26,12 +26,27 @@ describe("the request board against the real MariaDB", () => {
       id: (await knex("users").where({ email: DEMO_USERS.reviewers[2].email }).first("id")).id,
       role: "reviewer",
     };
-    // A few hundred open requests spread over kinds, regions, collectors, budgets and ages.
-    const project = await knex("projects").first("id", "owner_id");
+    // A few hundred open requests spread over kinds, regions, collectors, budgets and ages, each
+    // on a project of its own (a project has at most one open request).
+    const owner = await knex("projects").first("owner_id");
+    const projects = Array.from({ length: 300 }, (_, i) => ({
+      owner_id: owner.owner_id,
+      title: `Generated project ${i}`,
+      system: "{}",
+      status: "ready",
+      worst_level: "ok",
+    }));
+    await knex.batchInsert("projects", projects, 100);
+    const projectIds = (
+      await knex("projects")
+        .where("title", "like", "Generated project %")
+        .orderBy("id")
+        .select("id")
+    ).map((p) => Number(p.id));
     const regions = ["wales", "south-west", "london", "scotland"];
     const rows = Array.from({ length: 300 }, (_, i) => ({
-      project_id: project.id,
-      homeowner_id: project.owner_id,
+      project_id: projectIds[i],
+      homeowner_id: owner.owner_id,
       kind: i % 3 === 0 ? "site_visit" : "remote_check",
       status: i % 10 === 9 ? "cancelled" : "open",
       questions: `Generated question ${i}`,
@@ -133,7 +148,6 @@ describe("the request board against the real MariaDB", () => {
       .update({ centre_lat: 52.0, centre_lng: -3.5 });
     const project = await knex("projects").first("id", "owner_id");
     const base = {
-      project_id: project.id,
       homeowner_id: project.owner_id,
       kind: "site_visit",
       status: "open",
@@ -152,8 +166,15 @@ describe("the request board against the real MariaDB", () => {
       [10, "2030-05-01"],
       [60, "2030-01-15"],
     ] as const) {
+      const [projectId] = await knex("projects").insert({
+        owner_id: project.owner_id,
+        title: `Site ${d} km`,
+        system: "{}",
+        status: "ready",
+      });
       const [id] = await knex("requests").insert({
         ...base,
+        project_id: projectId,
         site_lat: km(d),
         site_lng: -3.5,
         window_start: start,

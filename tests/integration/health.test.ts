@@ -1,6 +1,6 @@
 import { afterAll, describe, expect, it } from "vitest";
 import knexFactory from "knex";
-import { getHealth } from "@/lib/server/health";
+import { getHealth } from "@/lib/data/health";
 import { knexConfig } from "@/knexfile";
 import { testKnex } from "../support/db";
 

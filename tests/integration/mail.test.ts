@@ -2,9 +2,9 @@ import { afterAll, beforeAll, beforeEach, describe, expect, inject, it } from "v
 import { spawn } from "node:child_process";
 import type { Knex } from "knex";
 import { seedDemo } from "@/db/seeds/demo";
-import { enqueueEmail } from "@/lib/mail/outbox";
+import { enqueueEmail } from "@/lib/data/outbox";
 import { renderEmail } from "@/lib/mail/templates";
-import * as notify from "@/lib/mail/notify";
+import * as notify from "@/lib/data/notify";
 import { createTransport, sendBatch } from "@/lib/worker/mail";
 import { testKnex, truncateAll } from "../support/db";
 import { MAIL_FROM, mailFake } from "../support/mail";

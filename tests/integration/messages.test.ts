@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import type { Knex } from "knex";
 import { seedDemo, DEMO_USERS } from "@/db/seeds/demo";
-import { submitQuote } from "@/lib/server/quotes";
-import { countUnread, listMessages, postMessage } from "@/lib/server/messages";
+import { submitQuote } from "@/lib/data/quotes";
+import { countUnread, listMessages, postMessage } from "@/lib/data/messages";
 import { testKnex, truncateAll } from "../support/db";
 import { statusOf } from "../support/status";
 
@@ -65,10 +65,10 @@ describe("messages on a request, against the real MariaDB", () => {
   it("counts unread messages until the thread is opened, and e-mails the other side", async () => {
     await postMessage(knex, who.sol!, requestId, { body: "First question" });
     await postMessage(knex, who.sol!, requestId, { body: "Second question" });
-    expect(await countUnread(knex, who.owner!.id)).toBe(2);
-    expect(await countUnread(knex, who.sol!.id)).toBe(0);
+    expect(await countUnread(knex, who.owner!)).toBe(2);
+    expect(await countUnread(knex, who.sol!)).toBe(0);
     await listMessages(knex, who.owner!, requestId, who.sol!.id);
-    expect(await countUnread(knex, who.owner!.id)).toBe(0);
+    expect(await countUnread(knex, who.owner!)).toBe(0);
     // Batched: two messages in a row give one e-mail.
     expect(
       await knex("email_outbox").where({ template: "new_message", to_user_id: who.owner!.id }),

@@ -10,7 +10,7 @@ import {
   getOwnProject,
   saveProjectSection,
   updateRequest,
-} from "@/lib/server/projects";
+} from "@/lib/data/projects";
 import { expireRequests } from "@/lib/worker/schedule";
 import { testKnex, truncateAll } from "../support/db";
 import { statusOf } from "../support/status";
@@ -114,7 +114,7 @@ describe("projects and requests against the real MariaDB", () => {
     expect(await status(updateRequest(knex, owner, rid, request))).toBe(409);
     const again = await createRequest(knex, owner, id, request);
     await knex("requests").where({ id: again }).update({ expires_at: "2020-01-01 00:00:00" });
-    await expireRequests.run({ knex, now: new Date(), appUrl: "http://x" });
+    await expireRequests.run({ db: knex, now: new Date(), appUrl: "http://x" });
     expect((await knex("requests").where({ id: again }).first("status")).status).toBe("expired");
   });
 

@@ -7,8 +7,8 @@ import {
   listQuotesForHomeowner,
   submitQuote,
   withdrawQuote,
-} from "@/lib/server/quotes";
-import { HttpError } from "@/lib/server/errors";
+} from "@/lib/data/quotes";
+import { HttpError } from "@/lib/data/errors";
 import { testKnex, truncateAll } from "../support/db";
 import { statusOf } from "../support/status";
 

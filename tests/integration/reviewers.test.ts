@@ -11,7 +11,7 @@ import {
   queueQuerySchema,
   saveReviewerProfile,
   setSuspension,
-} from "@/lib/server/reviewers";
+} from "@/lib/data/reviewers";
 import { testKnex, truncateAll } from "../support/db";
 import { statusOf } from "../support/status";
 

@@ -36,8 +36,8 @@ describe("scheduled tasks shared through MariaDB", () => {
     try {
       const now = new Date();
       await Promise.all([
-        runDueTasks({ knex, now, appUrl: "http://x" }, "w1", [slow]),
-        runDueTasks({ knex: other, now, appUrl: "http://x" }, "w2", [slow]),
+        runDueTasks({ db: knex, now, appUrl: "http://x" }, "w1", [slow]),
+        runDueTasks({ db: other, now, appUrl: "http://x" }, "w2", [slow]),
       ]);
     } finally {
       await other.destroy();
@@ -47,7 +47,7 @@ describe("scheduled tasks shared through MariaDB", () => {
     expect(row.lease_owner).toBeNull();
     expect(new Date(`${row.next_run_at}Z`).getTime()).toBeGreaterThan(Date.now() + 50_000);
     // Not due again until next_run_at.
-    await runDueTasks({ knex, now: new Date(), appUrl: "http://x" }, "w1", [slow]);
+    await runDueTasks({ db: knex, now: new Date(), appUrl: "http://x" }, "w1", [slow]);
     expect(runs).toBe(1);
   });
 
@@ -56,13 +56,13 @@ describe("scheduled tasks shared through MariaDB", () => {
     await knex("requests")
       .where({ id: open[0]!.id })
       .update({ expires_at: sql(new Date(Date.now() - 1000)) });
-    const out = await expireRequests.run({ knex, now: new Date(), appUrl: "http://x" });
+    const out = await expireRequests.run({ db: knex, now: new Date(), appUrl: "http://x" });
     expect(out).toBe("1 request(s) expired");
     expect((await knex("requests").where({ id: open[0]!.id }).first("status")).status).toBe(
       "expired",
     );
     expect((await knex("requests").where({ id: open[1]!.id }).first("status")).status).toBe("open");
-    expect(await expireRequests.run({ knex, now: new Date(), appUrl: "http://x" })).toBe(
+    expect(await expireRequests.run({ db: knex, now: new Date(), appUrl: "http://x" })).toBe(
       "0 request(s) expired",
     );
   });
@@ -80,7 +80,7 @@ describe("scheduled tasks shared through MariaDB", () => {
     await knex("credentials")
       .where({ id: soon })
       .update({ expires_on: sql(new Date(Date.now() + 20 * day)).slice(0, 10) });
-    const ctx = { knex, now: new Date(), appUrl: "http://app.test" };
+    const ctx = { db: knex, now: new Date(), appUrl: "http://app.test" };
     expect(await credentialExpiry.run(ctx)).toBe("1 credential(s) expired, 1 warning(s) queued");
     expect((await knex("credentials").where({ id: past }).first("status")).status).toBe("expired");
     const mail = await knex("email_outbox")

@@ -1,13 +1,10 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { redirect } from "next/navigation";
-import { getCurrentUser, pageUser } from "@/lib/server/auth/session";
+import { pageUser, type CurrentUser } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
-import { getAdminCounts, listOwnProjects } from "@/lib/server/dashboard";
-import { getVerificationStatus } from "@/lib/server/reviewers";
-import { resendVerification } from "@/lib/server/accounts";
+import { getAdminCounts, listOwnProjects } from "@/lib/data/dashboard";
+import { getVerificationStatus } from "@/lib/data/reviewers";
 import { credentialName } from "@/lib/credentials";
-import { env } from "@/lib/env";
 import { Card } from "@/components/ui/card";
 import { ButtonLink } from "@/components/ui/button";
 import { LevelBadge } from "@/components/loop-check/level-badge";
@@ -15,34 +12,21 @@ import { VerifyEmailBanner } from "@/components/auth/resend-verification";
 
 export const metadata: Metadata = { title: "Dashboard" };
 
-async function resend() {
-  "use server";
-  const user = await getCurrentUser();
-  if (!user) redirect("/sign-in");
-  await resendVerification(db(), user.id, env().APP_URL);
-  redirect("/dashboard?sent=1");
-}
-
-export default async function DashboardPage({
-  searchParams,
-}: {
-  searchParams: Promise<{ sent?: string }>;
-}) {
-  const user = (await pageUser("/dashboard"))!;
-  const { sent } = await searchParams;
+export default async function DashboardPage() {
+  const user = await pageUser("/dashboard");
   return (
     <div className="space-y-6">
       <h1 className="text-3xl font-bold">Hello, {user.displayName}</h1>
-      {!user.emailVerified ? <VerifyEmailBanner action={resend} sent={Boolean(sent)} /> : null}
-      {user.role === "homeowner" ? <HomeownerPanel userId={user.id} /> : null}
+      {!user.emailVerified ? <VerifyEmailBanner /> : null}
+      {user.role === "homeowner" ? <HomeownerPanel user={user} /> : null}
       {user.role === "reviewer" ? <ReviewerPanel userId={user.id} /> : null}
-      {user.role === "admin" ? <AdminPanel /> : null}
+      {user.role === "admin" ? <AdminPanel user={user} /> : null}
     </div>
   );
 }
 
-async function HomeownerPanel({ userId }: { userId: number }) {
-  const projects = await listOwnProjects(db(), userId);
+async function HomeownerPanel({ user }: { user: CurrentUser }) {
+  const projects = await listOwnProjects(db(), user);
   return (
     <Card>
       <h2 className="text-xl font-bold">Your projects</h2>
@@ -118,8 +102,8 @@ async function ReviewerPanel({ userId }: { userId: number }) {
   );
 }
 
-async function AdminPanel() {
-  const c = await getAdminCounts(db());
+async function AdminPanel({ user }: { user: CurrentUser }) {
+  const c = await getAdminCounts(db(), user);
   const tiles = [
     { label: "Credentials waiting", value: c.pendingCredentials, href: "/admin/credentials" },
     { label: "E-mails that failed", value: c.failedEmails, href: "/admin/outbox" },

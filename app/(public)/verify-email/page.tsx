@@ -1,19 +1,10 @@
 import type { Metadata } from "next";
 import Link from "next/link";
-import { redirect } from "next/navigation";
 import { AuthCard } from "@/components/auth/auth-card";
 import { Button } from "@/components/ui/button";
-import { verifyEmail } from "@/lib/server/accounts";
-import { db } from "@/lib/server/db";
+import { confirmEmail } from "@/components/auth/actions";
 
 export const metadata: Metadata = { title: "Confirm your e-mail address" };
-
-async function confirm(formData: FormData) {
-  "use server";
-  const token = String(formData.get("token") ?? "");
-  const ok = /^[A-Za-z0-9_-]{20,100}$/.test(token) && (await verifyEmail(db(), token));
-  redirect(ok ? "/verify-email?done=1" : "/verify-email?failed=1");
-}
 
 // The link only opens this page; the address is confirmed by the button, so a mail scanner
 // that follows links cannot use up the token.
@@ -35,7 +26,7 @@ export default async function VerifyEmailPage({
       ) : failed || !token ? (
         <p role="alert">This link has expired or was already used. Sign in to ask for a new one.</p>
       ) : (
-        <form action={confirm}>
+        <form action={confirmEmail}>
           <input type="hidden" name="token" value={token} />
           <Button type="submit" className="w-full">
             Confirm my address

@@ -1,8 +1,9 @@
 import { z } from "zod";
 import { requireRole } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
-import { errorResponse, HttpError } from "@/lib/server/errors";
-import { listBoard } from "@/lib/server/board";
+import { HttpError } from "@/lib/data/errors";
+import { errorResponse } from "@/lib/server/http";
+import { listBoard } from "@/lib/data/board";
 import { boardQuerySchema } from "@/lib/validation/board";
 
 /** The request board as JSON, for the board page's client-side fetching. */

@@ -1,5 +1,5 @@
 import { NextResponse } from "next/server";
-import { getHealth } from "@/lib/server/health";
+import { getHealth } from "@/lib/data/health";
 
 export const dynamic = "force-dynamic";
 

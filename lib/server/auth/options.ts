@@ -4,7 +4,8 @@ import CredentialsProvider from "next-auth/providers/credentials";
 import { env } from "@/lib/env";
 import { signInSchema } from "@/lib/validation/auth";
 import { db } from "../db";
-import { authenticate, type Role } from "../accounts";
+import { authenticate } from "@/lib/data/accounts";
+import type { Role } from "@/lib/data/actor";
 
 /**
  * next-auth v4 with e-mail and password. The JWT carries the user id and role; every page,

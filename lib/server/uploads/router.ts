@@ -3,10 +3,20 @@ import { createUploadthing, type FileRouter } from "uploadthing/next";
 import { UploadThingError } from "uploadthing/server";
 import { fileTypeFromBuffer } from "file-type";
 import { z } from "zod";
+import {
+  checkCredentialUpload,
+  checkProjectUpload,
+  recordCredentialEvidence,
+  recordProjectFile,
+  type ProjectFilePurpose,
+  type StoredFile,
+} from "@/lib/data/attachments";
+import { HttpError } from "@/lib/data/errors";
+import type { Actor } from "@/lib/data/actor";
+import { PHOTO_TAGS } from "@/lib/validation/request";
 import { getCurrentUser } from "../auth/session";
 import { db } from "../db";
 import { fetchStoredFile, utapi } from "./config";
-import { PHOTO_TAGS } from "@/lib/validation/request";
 
 const f = createUploadthing();
 
@@ -22,32 +32,65 @@ type Slug = keyof typeof ALLOWED_TYPES;
 export type UploadResult = { ok: true; attachmentId: number } | { ok: false; error: string };
 
 /**
- * Called when the upload service confirms a file: read its first bytes, refuse a type that
- * does not match the slug (and delete the file, so nothing is half stored), else record it.
+ * Called when the upload service confirms a file: read its bytes, refuse a type that does not
+ * match the slug, then record it through lib/data (which checks the limits again against the
+ * stored size). Any refusal deletes the stored file, so nothing is half kept.
  */
 async function recordUpload(
   slug: Slug,
   file: { key: string; name: string; size: number; ufsUrl: string },
-  write: (mime: string) => Promise<number>,
+  write: (stored: StoredFile) => Promise<number>,
 ): Promise<UploadResult> {
-  const head = await fetchStoredFile(file.ufsUrl, 4100);
-  const detected = head.ok
-    ? await fileTypeFromBuffer(new Uint8Array(await head.arrayBuffer()))
-    : undefined;
-  if (!detected || !(ALLOWED_TYPES[slug] as readonly string[]).includes(detected.mime)) {
+  const refuse = async (error: string): Promise<UploadResult> => {
     await utapi().deleteFiles(file.key);
-    return {
-      ok: false,
-      error: `“${file.name}” is not a ${slug === "photo" ? "JPEG, PNG or WebP image" : "PDF or an image"} (by its content), so it was not kept.`,
-    };
+    return { ok: false, error };
+  };
+  const res = await fetchStoredFile(file.ufsUrl);
+  const bytes = res.ok ? new Uint8Array(await res.arrayBuffer()) : new Uint8Array();
+  const detected = bytes.length ? await fileTypeFromBuffer(bytes) : undefined;
+  if (!detected || !(ALLOWED_TYPES[slug] as readonly string[]).includes(detected.mime))
+    return refuse(
+      `“${file.name}” is not a ${slug === "photo" ? "JPEG, PNG or WebP image" : "PDF or an image"} (by its content), so it was not kept.`,
+    );
+  try {
+    const id = await write({
+      key: file.key,
+      name: file.name,
+      sizeBytes: bytes.length,
+      mimeType: detected.mime,
+    });
+    return { ok: true, attachmentId: id };
+  } catch (err) {
+    if (err instanceof HttpError) return refuse(err.message);
+    await utapi().deleteFiles(file.key);
+    throw err;
   }
-  return { ok: true, attachmentId: await write(detected.mime) };
 }
 
 async function signedIn() {
   const user = await getCurrentUser();
   if (!user) throw new UploadThingError({ code: "FORBIDDEN", message: "Sign in to upload files." });
   return user;
+}
+
+/** Run a lib/data check in middleware; its refusal becomes the SDK's 4xx error. */
+async function check(work: () => Promise<void>) {
+  try {
+    await work();
+  } catch (err) {
+    if (err instanceof HttpError)
+      throw new UploadThingError({
+        code: err.status === 403 ? "FORBIDDEN" : "BAD_REQUEST",
+        message: err.message,
+      });
+    throw err;
+  }
+}
+
+async function projectMiddleware(projectId: number, purpose: ProjectFilePurpose) {
+  const user = await signedIn();
+  await check(() => checkProjectUpload(db(), user, projectId, purpose));
+  return { actor: { id: user.id, role: user.role } as Actor, projectId };
 }
 
 export const fileRouter = {
@@ -58,55 +101,12 @@ export const fileRouter = {
     .input(z.object({ credentialId: z.number().int().positive() }))
     .middleware(async ({ input }) => {
       const user = await signedIn();
-      if (user.role !== "reviewer")
-        throw new UploadThingError({
-          code: "FORBIDDEN",
-          message: "Only reviewers upload credential evidence.",
-        });
-      const credential = await db()("credentials")
-        .where({ id: input.credentialId })
-        .first("reviewer_id");
-      if (!credential || Number(credential.reviewer_id) !== user.id)
-        throw new UploadThingError({ code: "FORBIDDEN", message: "That credential is not yours." });
-      return { userId: user.id, credentialId: input.credentialId };
+      await check(() => checkCredentialUpload(db(), user, input.credentialId));
+      return { actor: { id: user.id, role: user.role } as Actor, credentialId: input.credentialId };
     })
     .onUploadComplete(({ metadata, file }) =>
-      recordUpload("credentialEvidence", file, (mime) =>
-        db().transaction(async (trx) => {
-          const [id] = await trx("attachments").insert({
-            owner_id: metadata.userId,
-            purpose: "credential_evidence",
-            file_key: file.key,
-            file_name: file.name.slice(0, 255),
-            mime_type: mime,
-            size_bytes: file.size,
-          });
-          const old = await trx("credentials")
-            .where({ id: metadata.credentialId })
-            .first("evidence_attachment_id", "status");
-          // New evidence sends a rejected credential back to the queue.
-          await trx("credentials")
-            .where({ id: metadata.credentialId })
-            .update({
-              evidence_attachment_id: id,
-              ...(old?.status === "rejected" ? { status: "pending", admin_reason: null } : {}),
-            });
-          if (old?.evidence_attachment_id)
-            await trx("attachments")
-              .where({ id: old.evidence_attachment_id })
-              .update({ deleted_at: trx.raw("CURRENT_TIMESTAMP(3)") });
-          await trx("audit_log").insert({
-            actor_id: metadata.userId,
-            action: "credential.evidence_uploaded",
-            entity_type: "reviewer",
-            entity_id: metadata.userId,
-            detail: JSON.stringify({
-              credentialId: metadata.credentialId,
-              attachmentId: Number(id),
-            }),
-          });
-          return Number(id);
-        }),
+      recordUpload("credentialEvidence", file, (stored) =>
+        recordCredentialEvidence(db(), metadata.actor, metadata.credentialId, stored),
       ),
     ),
   sketch: f({
@@ -114,13 +114,14 @@ export const fileRouter = {
     image: { maxFileSize: "16MB", maxFileCount: 1 },
   })
     .input(z.object({ projectId: z.number().int().positive() }))
-    .middleware(async ({ input }) => ({
-      ...(await ownProject(input.projectId, "sketch")),
-      caption: null,
-      tag: null,
-    }))
+    .middleware(async ({ input }) => projectMiddleware(input.projectId, "sketch"))
     .onUploadComplete(({ metadata, file }) =>
-      recordUpload("sketch", file, (mime) => insertProjectFile(metadata, "sketch", file, mime)),
+      recordUpload("sketch", file, (stored) =>
+        recordProjectFile(db(), metadata.actor, metadata.projectId, "sketch", stored, {
+          caption: null,
+          tag: null,
+        }),
+      ),
     ),
   photo: f({ image: { maxFileSize: "16MB", maxFileCount: 1 } })
     .input(
@@ -131,62 +132,18 @@ export const fileRouter = {
       }),
     )
     .middleware(async ({ input }) => ({
-      ...(await ownProject(input.projectId, "photo")),
+      ...(await projectMiddleware(input.projectId, "photo")),
       caption: input.caption || null,
       tag: input.tag,
     }))
     .onUploadComplete(({ metadata, file }) =>
-      recordUpload("photo", file, (mime) => insertProjectFile(metadata, "photo", file, mime)),
+      recordUpload("photo", file, (stored) =>
+        recordProjectFile(db(), metadata.actor, metadata.projectId, "photo", stored, {
+          caption: metadata.caption,
+          tag: metadata.tag,
+        }),
+      ),
     ),
 } satisfies FileRouter;
-
-/** At most this many live files of each kind per project. */
-export const PROJECT_FILE_LIMITS = { sketch: 3, photo: 20 } as const;
-
-async function ownProject(projectId: number, purpose: "sketch" | "photo") {
-  const user = await signedIn();
-  if (user.role !== "homeowner")
-    throw new UploadThingError({
-      code: "FORBIDDEN",
-      message: "Only the project's owner can add files to it.",
-    });
-  const project = await db()("projects")
-    .where({ id: projectId })
-    .whereNull("deleted_at")
-    .first("owner_id");
-  if (!project || Number(project.owner_id) !== user.id)
-    throw new UploadThingError({ code: "FORBIDDEN", message: "That project is not yours." });
-  const [{ n }] = (await db()("attachments")
-    .where({ project_id: projectId, purpose })
-    .whereNull("deleted_at")
-    .count({ n: "*" })) as [{ n: number }];
-  if (Number(n) >= PROJECT_FILE_LIMITS[purpose]) {
-    throw new UploadThingError({
-      code: "BAD_REQUEST",
-      message: `A project can have at most ${PROJECT_FILE_LIMITS[purpose]} ${purpose === "photo" ? "photos" : "sketches"}: delete one first.`,
-    });
-  }
-  return { userId: user.id, projectId };
-}
-
-async function insertProjectFile(
-  meta: { userId: number; projectId: number; caption: string | null; tag: string | null },
-  purpose: "sketch" | "photo",
-  file: { key: string; name: string; size: number },
-  mime: string,
-) {
-  const [id] = await db()("attachments").insert({
-    owner_id: meta.userId,
-    project_id: meta.projectId,
-    purpose,
-    file_key: file.key,
-    file_name: file.name.slice(0, 255),
-    mime_type: mime,
-    size_bytes: file.size,
-    caption: meta.caption,
-    tag: meta.tag,
-  });
-  return Number(id);
-}
 
 export type LoopwrightFileRouter = typeof fileRouter;

@@ -7,10 +7,9 @@ import {
   QUEUE_PAGE_SIZE,
   queueQuerySchema,
   type QueueQuery,
-} from "@/lib/server/reviewers";
+} from "@/lib/data/reviewers";
 import { CREDENTIAL_KINDS, credentialName } from "@/lib/credentials";
 import { Card } from "@/components/ui/card";
-import { Forbidden } from "@/components/ui/forbidden";
 import { Button } from "@/components/ui/button";
 import { inputClass } from "@/components/ui/field";
 import { CredentialStatus } from "@/components/reviewer/credential-status";
@@ -34,7 +33,6 @@ export default async function CredentialQueuePage({
   searchParams: Promise<Search>;
 }) {
   const user = await pageUser("/admin/credentials", ["admin"]);
-  if (!user) return <Forbidden />;
   const parsed = queueQuerySchema.safeParse(await searchParams);
   const query = parsed.success ? parsed.data : queueQuerySchema.parse({});
   const { rows, total } = await listCredentialQueue(db(), user, query);

@@ -2,27 +2,13 @@ import type { Metadata } from "next";
 import { pageUser } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
 import { Card } from "@/components/ui/card";
-import { Forbidden } from "@/components/ui/forbidden";
+import { listUnsentEmails } from "@/lib/data/outbox";
 
 export const metadata: Metadata = { title: "E-mail outbox" };
 
 export default async function OutboxPage() {
   const user = await pageUser("/admin/outbox", ["admin"]);
-  if (!user) return <Forbidden />;
-  const rows = await db()("email_outbox")
-    .whereIn("status", ["failed", "pending", "sending"])
-    .orderBy("id", "desc")
-    .limit(200)
-    .select(
-      "id",
-      "to_address",
-      "template",
-      "status",
-      "attempts",
-      "last_error",
-      "next_attempt_at",
-      "created_at",
-    );
+  const rows = await listUnsentEmails(db(), user);
   return (
     <div className="space-y-4">
       <h1 className="text-3xl font-bold">E-mail outbox</h1>
@@ -47,12 +33,12 @@ export default async function OutboxPage() {
             <tbody>
               {rows.map((r) => (
                 <tr key={r.id} className="border-b border-slate-100 align-top">
-                  <td className="py-1 pr-2">{String(r.created_at).slice(0, 16)}</td>
-                  <td className="pr-2">{r.to_address}</td>
+                  <td className="py-1 pr-2">{r.createdAt.slice(0, 16)}</td>
+                  <td className="pr-2">{r.toAddress}</td>
                   <td className="pr-2">{r.template}</td>
                   <td className="pr-2 font-semibold">{r.status}</td>
                   <td className="pr-2">{r.attempts}</td>
-                  <td className="font-mono text-xs">{r.last_error ?? ""}</td>
+                  <td className="font-mono text-xs">{r.lastError ?? ""}</td>
                 </tr>
               ))}
             </tbody>

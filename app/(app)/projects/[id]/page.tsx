@@ -3,28 +3,27 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { pageUser } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
-import { HttpError } from "@/lib/server/errors";
-import { getOwnProject, listProjectFiles, listProjectRequests } from "@/lib/server/projects";
+import { HttpError } from "@/lib/data/errors";
+import { getOwnProject, listProjectFiles, listProjectRequests } from "@/lib/data/projects";
 import { runLoopCheck } from "@/lib/calc/loop-check";
 import { systemSchema } from "@/lib/validation/system";
 import { formatMoney } from "@/lib/money";
 import { SECTIONS } from "@/components/loop-check/system-fields";
 import { LoopCheckResults } from "@/components/loop-check/loop-check-results";
 import { Card } from "@/components/ui/card";
-import { Button, ButtonLink } from "@/components/ui/button";
-import { Forbidden } from "@/components/ui/forbidden";
+import { ButtonLink } from "@/components/ui/button";
 import { Cautions } from "@/components/ui/caution";
 import { ProjectFiles } from "@/components/projects/project-files";
 import { RequestForm } from "@/components/projects/request-form";
 import { withdrawRequest } from "@/components/projects/actions";
 import { DeleteProjectButton } from "@/components/projects/delete-project-button";
+import { ActionForm } from "@/components/ui/action-form";
 
 export const metadata: Metadata = { title: "Project" };
 
 export default async function ProjectPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const user = await pageUser(`/projects/${id}`, ["homeowner", "admin"]);
-  if (!user) return <Forbidden />;
   if (!/^\d+$/.test(id)) notFound();
   const project = await getOwnProject(db(), user, Number(id)).catch((err: unknown) => {
     if (err instanceof HttpError && err.status === 404) notFound();
@@ -92,11 +91,13 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
                   Quotes
                 </Link>
                 {r.status === "open" ? (
-                  <form action={withdrawRequest.bind(null, project.id, r.id)}>
-                    <Button type="submit" variant="ghost" className="min-h-11">
-                      Cancel request
-                    </Button>
-                  </form>
+                  <ActionForm
+                    action={withdrawRequest}
+                    fields={{ projectId: project.id, requestId: r.id }}
+                    submitLabel="Cancel request"
+                    pendingLabel="Cancelling…"
+                    confirm="Cancel this request? Reviewers who quoted are told."
+                  />
                 ) : null}
               </li>
             ))}

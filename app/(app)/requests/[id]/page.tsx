@@ -3,14 +3,17 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { pageUser, type CurrentUser } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
-import { HttpError } from "@/lib/server/errors";
-import { getRequestForReviewer, listQuotesForHomeowner } from "@/lib/server/quotes";
+import { HttpError } from "@/lib/data/errors";
+import {
+  getRequestForHomeowner,
+  getRequestForReviewer,
+  listQuotesForHomeowner,
+} from "@/lib/data/quotes";
 import { runLoopCheck } from "@/lib/calc/loop-check";
 import { regionName } from "@/lib/regions";
 import { formatMoney } from "@/lib/money";
 import { Card } from "@/components/ui/card";
-import { Button } from "@/components/ui/button";
-import { Forbidden } from "@/components/ui/forbidden";
+import { ActionForm } from "@/components/ui/action-form";
 import { Cautions } from "@/components/ui/caution";
 import { LoopCheckResults } from "@/components/loop-check/loop-check-results";
 import { QuoteForm } from "@/components/quotes/quote-form";
@@ -28,7 +31,6 @@ const orNotFound = (err: unknown): never => {
 export default async function RequestPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const user = await pageUser(`/requests/${id}`, ["reviewer", "homeowner"]);
-  if (!user) return <Forbidden />;
   if (!/^\d+$/.test(id)) notFound();
   return user.role === "reviewer" ? (
     <ReviewerView user={user} requestId={Number(id)} />
@@ -84,11 +86,14 @@ async function ReviewerView({ user, requestId }: { user: CurrentUser; requestId:
           <>
             <QuoteForm requestId={r.id} siteVisit={r.kind === "site_visit"} current={r.myQuote} />
             {r.myQuote ? (
-              <form action={takeBackQuote.bind(null, r.id, r.myQuote.id)} className="mt-3">
-                <Button type="submit" variant="ghost">
-                  Withdraw my quote
-                </Button>
-              </form>
+              <ActionForm
+                action={takeBackQuote}
+                fields={{ requestId: r.id, quoteId: r.myQuote.id }}
+                submitLabel="Withdraw my quote"
+                pendingLabel="Withdrawing…"
+                confirm="Withdraw your quote? The homeowner will no longer see it."
+                className="mt-3"
+              />
             ) : null}
           </>
         )}
@@ -105,16 +110,13 @@ async function ReviewerView({ user, requestId }: { user: CurrentUser; requestId:
 }
 
 async function HomeownerView({ user, requestId }: { user: CurrentUser; requestId: number }) {
-  const request = await db()("requests")
-    .where({ id: requestId, homeowner_id: user.id })
-    .first("id", "project_id", "status", "kind");
-  if (!request) notFound();
+  const request = await getRequestForHomeowner(db(), user, requestId).catch(orNotFound);
   const quotes = await listQuotesForHomeowner(db(), user, requestId);
   return (
     <div className="space-y-6">
       <h1 className="text-3xl font-bold">Quotes</h1>
       <p>
-        <Link className="underline" href={`/projects/${request.project_id}`}>
+        <Link className="underline" href={`/projects/${request.projectId}`}>
           Back to the project
         </Link>{" "}
         · request {request.status}

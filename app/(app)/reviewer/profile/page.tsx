@@ -2,17 +2,15 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { pageUser } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
-import { getReviewerProfile } from "@/lib/server/reviewers";
+import { getReviewerProfile } from "@/lib/data/reviewers";
 import { Card } from "@/components/ui/card";
-import { Forbidden } from "@/components/ui/forbidden";
 import { ProfileForm } from "@/components/reviewer/profile-form";
 
 export const metadata: Metadata = { title: "Your trade profile" };
 
 export default async function ReviewerProfilePage() {
   const user = await pageUser("/reviewer/profile", ["reviewer"]);
-  if (!user) return <Forbidden />;
-  const profile = await getReviewerProfile(db(), user.id);
+  const profile = await getReviewerProfile(db(), user, user.id);
   return (
     <div className="space-y-4">
       <h1 className="text-3xl font-bold">Your trade profile</h1>

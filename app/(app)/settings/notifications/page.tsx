@@ -1,42 +1,27 @@
 import type { Metadata } from "next";
-import { redirect } from "next/navigation";
-import { getCurrentUser, pageUser } from "@/lib/server/auth/session";
+import { pageUser } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
-import { getPreferences, savePreferences } from "@/lib/server/preferences";
+import { getPreferences } from "@/lib/data/preferences";
 import { Card } from "@/components/ui/card";
-import { Button } from "@/components/ui/button";
+import { ActionForm } from "@/components/ui/action-form";
+import { saveNotificationSettings } from "@/components/settings/actions";
 
 export const metadata: Metadata = { title: "E-mail settings" };
 
-async function save(formData: FormData) {
-  "use server";
-  const user = await getCurrentUser();
-  if (!user) redirect("/sign-in");
-  await savePreferences(db(), user.id, {
-    notifyNewMessage: formData.get("notifyNewMessage") === "on",
-    notifyNewQuote: formData.get("notifyNewQuote") === "on",
-  });
-  redirect("/settings/notifications?saved=1");
-}
-
-export default async function NotificationSettingsPage({
-  searchParams,
-}: {
-  searchParams: Promise<{ saved?: string }>;
-}) {
-  const user = (await pageUser("/settings/notifications"))!;
-  const prefs = await getPreferences(db(), user.id);
-  const { saved } = await searchParams;
+export default async function NotificationSettingsPage() {
+  const user = await pageUser("/settings/notifications");
+  const prefs = await getPreferences(db(), user);
   return (
     <div className="max-w-2xl space-y-4">
       <h1 className="text-3xl font-bold">E-mail settings</h1>
-      {saved ? (
-        <p role="status" className="rounded-lg bg-level-ok-bg p-3 text-level-ok">
-          Saved.
-        </p>
-      ) : null}
       <Card>
-        <form action={save} className="space-y-4">
+        <ActionForm
+          action={saveNotificationSettings}
+          submitLabel="Save"
+          pendingLabel="Saving…"
+          variant="primary"
+          className="space-y-4"
+        >
           <fieldset className="space-y-3">
             <legend className="font-semibold">E-mails you can switch off</legend>
             <label className="flex min-h-12 items-center gap-3">
@@ -66,8 +51,7 @@ export default async function NotificationSettingsPage({
             E-mails about payments, reports, disputes, credentials and your account always go: they
             need you to act.
           </p>
-          <Button type="submit">Save</Button>
-        </form>
+        </ActionForm>
       </Card>
     </div>
   );

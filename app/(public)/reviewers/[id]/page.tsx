@@ -1,7 +1,8 @@
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { db } from "@/lib/server/db";
-import { getReviewerProfile, getVerificationStatus } from "@/lib/server/reviewers";
+import { getCurrentUser } from "@/lib/server/auth/session";
+import { getReviewerProfile, getVerificationStatus, listVerifiedKinds } from "@/lib/data/reviewers";
 import { credentialName } from "@/lib/credentials";
 import { regionName } from "@/lib/regions";
 import { SPECIALISMS } from "@/lib/validation/reviewer";
@@ -13,14 +14,13 @@ export const metadata: Metadata = { title: "Reviewer" };
 export default async function PublicReviewerPage({ params }: { params: Promise<{ id: string }> }) {
   const id = Number((await params).id);
   if (!Number.isInteger(id) || id <= 0) notFound();
-  const profile = await getReviewerProfile(db(), id);
+  // The public view: a suspended reviewer's profile is not shown, even to themself here.
+  const viewer = await getCurrentUser();
+  const profile = await getReviewerProfile(db(), viewer, id);
   if (!profile || profile.suspendedAt) notFound();
   const [status, badges] = await Promise.all([
     getVerificationStatus(db(), id),
-    db()("credentials")
-      .where({ reviewer_id: id, status: "verified" })
-      .andWhere("expires_on", ">=", new Date().toISOString().slice(0, 10))
-      .distinct("kind"),
+    listVerifiedKinds(db(), id),
   ]);
   return (
     <div className="max-w-3xl space-y-4">
@@ -45,8 +45,8 @@ export default async function PublicReviewerPage({ params }: { params: Promise<{
             <li>None yet.</li>
           ) : (
             badges.map((b) => (
-              <li key={b.kind} className="flex items-center gap-2">
-                <CredentialStatus status="verified" /> {credentialName(b.kind)}
+              <li key={b} className="flex items-center gap-2">
+                <CredentialStatus status="verified" /> {credentialName(b)}
               </li>
             ))
           )}

@@ -1,7 +1,7 @@
 import NextAuth from "next-auth";
 import { authOptions } from "@/lib/server/auth/options";
 import { db } from "@/lib/server/db";
-import { hit, SIGN_IN_LIMITS } from "@/lib/server/rate-limit";
+import { hit, SIGN_IN_LIMITS } from "@/lib/data/rate-limit";
 import { env } from "@/lib/env";
 
 type Ctx = { params: Promise<{ nextauth: string[] }> };

@@ -1,8 +1,9 @@
 import { z } from "zod";
 import { requireRole } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
-import { errorResponse, HttpError } from "@/lib/server/errors";
-import { getCredential } from "@/lib/server/reviewers";
+import { HttpError } from "@/lib/data/errors";
+import { errorResponse } from "@/lib/server/http";
+import { getCredential } from "@/lib/data/reviewers";
 
 const idSchema = z.coerce.number().int().positive();
 

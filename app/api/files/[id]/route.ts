@@ -1,8 +1,9 @@
 import { z } from "zod";
 import { requireUser } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
-import { errorResponse, HttpError } from "@/lib/server/errors";
-import { getReadableAttachment } from "@/lib/server/files";
+import { HttpError } from "@/lib/data/errors";
+import { errorResponse } from "@/lib/server/http";
+import { getReadableAttachment } from "@/lib/data/files";
 import { fetchStoredFile, uploadConfig } from "@/lib/server/uploads/config";
 
 const idSchema = z.coerce.number().int().positive();

@@ -4,12 +4,12 @@ import { pageUser } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
 import {
   getReviewerProfile,
+  getReviewerRecord,
   getVerificationStatus,
   listReviewerAudit,
-} from "@/lib/server/reviewers";
+} from "@/lib/data/reviewers";
 import { credentialName } from "@/lib/credentials";
 import { Card } from "@/components/ui/card";
-import { Forbidden } from "@/components/ui/forbidden";
 import { CredentialStatus } from "@/components/reviewer/credential-status";
 import { SuspensionForm } from "@/components/admin/decision-forms";
 
@@ -18,27 +18,21 @@ export const metadata: Metadata = { title: "Reviewer record" };
 export default async function ReviewerRecordPage({ params }: { params: Promise<{ id: string }> }) {
   const { id } = await params;
   const user = await pageUser(`/admin/reviewers/${id}`, ["admin"]);
-  if (!user) return <Forbidden />;
   const reviewerId = Number(id);
   if (!Number.isInteger(reviewerId) || reviewerId <= 0) notFound();
-  const account = await db()("users")
-    .where({ id: reviewerId, role: "reviewer" })
-    .first("id", "display_name", "email", "created_at");
-  if (!account) notFound();
-  const [profile, status, audit, credentials] = await Promise.all([
-    getReviewerProfile(db(), reviewerId),
+  const record = await getReviewerRecord(db(), user, reviewerId);
+  if (!record) notFound();
+  const { account, credentials } = record;
+  const [profile, status, audit] = await Promise.all([
+    getReviewerProfile(db(), user, reviewerId),
     getVerificationStatus(db(), reviewerId),
     listReviewerAudit(db(), user, reviewerId),
-    db()("credentials")
-      .where({ reviewer_id: reviewerId })
-      .orderBy("created_at", "desc")
-      .select("id", "kind", "status", "expires_on", "admin_reason"),
   ]);
   return (
     <div className="space-y-5">
-      <h1 className="text-3xl font-bold">{profile?.tradingName ?? account.display_name}</h1>
+      <h1 className="text-3xl font-bold">{profile?.tradingName ?? account.displayName}</h1>
       <p className="text-slate-700">
-        {account.display_name} · {account.email} · joined {String(account.created_at).slice(0, 10)}
+        {account.displayName} · {account.email} · joined {account.createdAt.slice(0, 10)}
       </p>
       <Card>
         <h2 className="text-xl font-bold">Status</h2>
@@ -65,8 +59,8 @@ export default async function ReviewerRecordPage({ params }: { params: Promise<{
               <CredentialStatus status={c.status} />{" "}
               <span className="font-medium">{credentialName(c.kind)}</span>
               <span className="text-sm text-slate-600">
-                expires {String(c.expires_on)}
-                {c.admin_reason ? ` · ${c.admin_reason}` : ""}
+                expires {c.expiresOn}
+                {c.adminReason ? ` · ${c.adminReason}` : ""}
               </span>
             </li>
           ))}

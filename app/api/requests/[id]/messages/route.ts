@@ -1,8 +1,9 @@
 import { z } from "zod";
 import { requireRole } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
-import { errorResponse, HttpError } from "@/lib/server/errors";
-import { listMessages, postMessage } from "@/lib/server/messages";
+import { HttpError } from "@/lib/data/errors";
+import { errorResponse } from "@/lib/server/http";
+import { listMessages, postMessage } from "@/lib/data/messages";
 
 const id = z.coerce.number().int().positive();
 

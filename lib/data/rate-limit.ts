@@ -1,11 +1,11 @@
-import type { Knex } from "knex";
+import type { Db } from "./db";
 
 /**
  * Fixed-window counters in MariaDB, shared by every app process: `hit` adds one and says
  * whether the bucket is still within its limit. Old windows are swept now and then.
  */
 export async function hit(
-  knex: Knex,
+  knex: Db,
   bucket: string,
   limit: number,
   windowMs: number,

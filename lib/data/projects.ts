@@ -1,6 +1,3 @@
-import "server-only";
-import type { Knex } from "knex";
-import { z } from "zod";
 import {
   collectorArraySchema,
   sectionSchemas,
@@ -9,24 +6,19 @@ import {
   type SystemDraft,
   type SystemSection,
 } from "@/lib/validation/system";
-import { projectTitleSchema, requestSchema, type RequestInput } from "@/lib/validation/request";
+import { projectTitleSchema, requestSchema } from "@/lib/validation/request";
 import { runLoopCheck } from "@/lib/calc/loop-check";
+import { buildChecklist } from "@/lib/checklist/build";
 import { env } from "@/lib/env";
-import { forbidden, notFound, conflict, unprocessable } from "./errors";
-import type { Actor } from "./reviewers";
+import { DAY_MS, sqlDateTime } from "@/lib/time";
+import type { Actor } from "./actor";
+import { audit } from "./audit";
+import type { Db, Trx } from "./db";
+import { conflict, forbidden, notFound, parseInput, unprocessable } from "./errors";
+import { parseJson } from "./json";
+import type { ProjectFile } from "@/lib/types/projects";
 
-const sqlNow = (offsetMs = 0) =>
-  new Date(Date.now() + offsetMs).toISOString().slice(0, 23).replace("T", " ");
-const parseJson = <T>(v: unknown): T => (typeof v === "string" ? (JSON.parse(v) as T) : (v as T));
-
-function fieldErrorsOf(error: z.ZodError, prefix = ""): Record<string, string[]> {
-  const out: Record<string, string[]> = {};
-  for (const issue of error.issues) {
-    const key = [prefix, ...issue.path.map(String)].filter(Boolean).join(".");
-    (out[key] ??= []).push(issue.message);
-  }
-  return out;
-}
+export type { ProjectFile } from "@/lib/types/projects";
 
 export interface Project {
   id: number;
@@ -38,45 +30,33 @@ export interface Project {
   updatedAt: string;
 }
 
+type RequestValues = ReturnType<typeof requestSchema.parse>;
+
+/** Jobs in these states hold money or work in progress: their project cannot be deleted. */
+const ACTIVE_JOB_STATES = ["funded", "in_review", "delivered", "disputed"];
+
 function requireHomeowner(actor: Actor) {
   if (actor.role !== "homeowner") throw forbidden("Only homeowners have projects.");
 }
 
-export async function createProject(
-  knex: Knex,
-  actor: Actor,
-  input: { title: string },
-): Promise<number> {
+export async function createProject(db: Db, actor: Actor, input: unknown): Promise<number> {
   requireHomeowner(actor);
-  const parsed = projectTitleSchema.safeParse(input);
-  if (!parsed.success)
-    throw unprocessable("Some details need attention.", fieldErrorsOf(parsed.error));
-  return knex.transaction(async (trx) => {
+  const v = parseInput(projectTitleSchema, input);
+  return db.transaction(async (trx) => {
     const [id] = await trx("projects").insert({
       owner_id: actor.id,
-      title: parsed.data.title,
+      title: v.title,
       system: "{}",
       status: "draft",
     });
-    await trx("audit_log").insert({
-      actor_id: actor.id,
-      action: "project.created",
-      entity_type: "project",
-      entity_id: id,
-      detail: "{}",
-    });
+    await audit(trx, actor.id, "project.created", "project", Number(id));
     return Number(id);
   });
 }
 
 /** A project its owner (or an admin) may open; anyone else gets 404 so ids reveal nothing. */
-export async function getOwnProject(
-  knex: Knex,
-  actor: Actor,
-  id: number,
-  trx: Knex = knex,
-): Promise<Project> {
-  const row = await trx("projects")
+export async function getOwnProject(db: Db, actor: Actor, id: number): Promise<Project> {
+  const row = await db("projects")
     .where({ id })
     .whereNull("deleted_at")
     .first("id", "owner_id", "title", "system", "status", "created_at", "updated_at");
@@ -98,7 +78,7 @@ export async function getOwnProject(
  * filters on; an invalid one is refused with field errors and the saved draft stays as it was.
  */
 export async function saveProjectSection(
-  knex: Knex,
+  db: Db,
   actor: Actor,
   projectId: number,
   section: SystemSection,
@@ -107,17 +87,15 @@ export async function saveProjectSection(
   requireHomeowner(actor);
   const schema = sectionSchemas[section];
   if (!schema) throw unprocessable("Unknown step.");
-  const parsed = schema.safeParse(value);
-  if (!parsed.success)
-    throw unprocessable("Some values need attention.", fieldErrorsOf(parsed.error, section));
-  await knex.transaction(async (trx) => {
+  const data = parseInput(schema, value, "Some values need attention.", section);
+  await db.transaction(async (trx) => {
     const row = await trx("projects")
       .where({ id: projectId, owner_id: actor.id })
       .whereNull("deleted_at")
       .forUpdate()
       .first("system");
     if (!row) throw notFound("No such project.");
-    const system = { ...parseJson<SystemDraft>(row.system), [section]: parsed.data };
+    const system = { ...parseJson<SystemDraft>(row.system), [section]: data };
     const full = systemSchema.safeParse(system);
     const check = runLoopCheck(system);
     const collectors = collectorArraySchema.safeParse(system.collectors);
@@ -153,12 +131,12 @@ export interface ProjectRequest {
 }
 
 export async function listProjectRequests(
-  knex: Knex,
+  db: Db,
   actor: Actor,
   projectId: number,
 ): Promise<ProjectRequest[]> {
-  await getOwnProject(knex, actor, projectId);
-  const rows = await knex("requests")
+  await getOwnProject(db, actor, projectId);
+  const rows = await db("requests")
     .where({ project_id: projectId })
     .orderBy("created_at", "desc")
     .select("*");
@@ -178,7 +156,7 @@ export async function listProjectRequests(
   }));
 }
 
-function requestRow(v: z.output<typeof requestSchema>) {
+function requestRow(v: RequestValues) {
   const site = v.kind === "site_visit";
   return {
     kind: v.kind,
@@ -193,24 +171,36 @@ function requestRow(v: z.output<typeof requestSchema>) {
   };
 }
 
-/** Post a request for review; the description must be complete so reviewers can quote on it. */
+/**
+ * Post a request for review; the description must be complete so reviewers can quote on it.
+ * The request keeps a snapshot of the validated system, the loop check's findings and the
+ * checklist (with its catalogue version) as they were now, so the reviewer and later the report
+ * read exactly what the homeowner saw. The project row is locked, so two posts at once make one
+ * request (a unique key on the open request backs this up).
+ */
 export async function createRequest(
-  knex: Knex,
+  db: Db,
   actor: Actor,
   projectId: number,
-  input: RequestInput,
+  input: unknown,
 ): Promise<number> {
   requireHomeowner(actor);
-  const parsed = requestSchema.safeParse(input);
-  if (!parsed.success)
-    throw unprocessable("Some details need attention.", fieldErrorsOf(parsed.error));
-  return knex.transaction(async (trx) => {
-    const project = await getOwnProject(knex, actor, projectId, trx);
+  const v = parseInput(requestSchema, input);
+  return db.transaction(async (trx) => {
+    const locked = await trx("projects")
+      .where({ id: projectId, owner_id: actor.id })
+      .whereNull("deleted_at")
+      .forUpdate()
+      .first("id");
+    if (!locked) throw notFound("No such project.");
+    const project = await getOwnProject(trx, actor, projectId);
     const full = systemSchema.safeParse(project.system);
     if (!full.success)
       throw unprocessable("Finish every step of the description before asking for a review.");
     const open = await trx("requests").where({ project_id: projectId, status: "open" }).first("id");
     if (open) throw conflict("This project already has an open request: edit that one instead.");
+    const check = runLoopCheck(full.data);
+    const checklist = buildChecklist(full.data, check.findings);
     const [id] = await trx("requests").insert({
       project_id: projectId,
       homeowner_id: actor.id,
@@ -218,21 +208,22 @@ export async function createRequest(
       currency: env().CURRENCY,
       region: full.data.site.region,
       collector_type: full.data.collectors.type,
-      expires_at: sqlNow(env().REQUEST_EXPIRY_DAYS * 86_400_000),
-      ...requestRow(parsed.data),
+      expires_at: sqlDateTime(new Date(), env().REQUEST_EXPIRY_DAYS * DAY_MS),
+      system_snapshot: JSON.stringify(full.data),
+      loop_check_snapshot: JSON.stringify({
+        worst: check.worst,
+        findings: check.findings,
+        catalogueVersion: checklist.version,
+        itemKeys: checklist.items.map((i) => i.key),
+      }),
+      ...requestRow(v),
     });
-    await trx("audit_log").insert({
-      actor_id: actor.id,
-      action: "request.posted",
-      entity_type: "request",
-      entity_id: id,
-      detail: JSON.stringify({ projectId }),
-    });
+    await audit(trx, actor.id, "request.posted", "request", Number(id), { projectId });
     return Number(id);
   });
 }
 
-async function lockOwnOpenRequest(trx: Knex.Transaction, actor: Actor, requestId: number) {
+async function lockOwnOpenRequest(trx: Trx, actor: Actor, requestId: number) {
   const r = await trx("requests")
     .where({ id: requestId })
     .forUpdate()
@@ -244,62 +235,39 @@ async function lockOwnOpenRequest(trx: Knex.Transaction, actor: Actor, requestId
 }
 
 export async function updateRequest(
-  knex: Knex,
+  db: Db,
   actor: Actor,
   requestId: number,
-  input: RequestInput,
+  input: unknown,
 ): Promise<void> {
   requireHomeowner(actor);
-  const parsed = requestSchema.safeParse(input);
-  if (!parsed.success)
-    throw unprocessable("Some details need attention.", fieldErrorsOf(parsed.error));
-  await knex.transaction(async (trx) => {
+  const v = parseInput(requestSchema, input);
+  await db.transaction(async (trx) => {
     await lockOwnOpenRequest(trx, actor, requestId);
-    await trx("requests").where({ id: requestId }).update(requestRow(parsed.data));
-    await trx("audit_log").insert({
-      actor_id: actor.id,
-      action: "request.edited",
-      entity_type: "request",
-      entity_id: requestId,
-      detail: "{}",
-    });
+    await trx("requests").where({ id: requestId }).update(requestRow(v));
+    await audit(trx, actor.id, "request.edited", "request", requestId);
   });
 }
 
-export async function cancelRequest(knex: Knex, actor: Actor, requestId: number): Promise<void> {
+export async function cancelRequest(db: Db, actor: Actor, requestId: number): Promise<void> {
   requireHomeowner(actor);
-  await knex.transaction(async (trx) => {
+  await db.transaction(async (trx) => {
     await lockOwnOpenRequest(trx, actor, requestId);
     await trx("requests").where({ id: requestId }).update({ status: "cancelled" });
     await trx("quotes")
       .where({ request_id: requestId, status: "live" })
       .update({ status: "declined", decline_reason: "The homeowner cancelled the request." });
-    await trx("audit_log").insert({
-      actor_id: actor.id,
-      action: "request.cancelled",
-      entity_type: "request",
-      entity_id: requestId,
-      detail: "{}",
-    });
+    await audit(trx, actor.id, "request.cancelled", "request", requestId);
   });
 }
 
-export interface ProjectFile {
-  id: number;
-  purpose: "sketch" | "photo";
-  fileName: string;
-  mimeType: string;
-  caption: string | null;
-  tag: string | null;
-}
-
 export async function listProjectFiles(
-  knex: Knex,
+  db: Db,
   actor: Actor,
   projectId: number,
 ): Promise<ProjectFile[]> {
-  await getOwnProject(knex, actor, projectId);
-  const rows = await knex("attachments")
+  await getOwnProject(db, actor, projectId);
+  const rows = await db("attachments")
     .where({ project_id: projectId })
     .whereNull("deleted_at")
     .orderBy("id")
@@ -316,12 +284,12 @@ export async function listProjectFiles(
 
 /** Mark a project file deleted and return its storage key, for the caller to delete from the store. */
 export async function removeProjectFile(
-  knex: Knex,
+  db: Db,
   actor: Actor,
   attachmentId: number,
 ): Promise<string> {
   requireHomeowner(actor);
-  return knex.transaction(async (trx) => {
+  return db.transaction(async (trx) => {
     const a = await trx("attachments")
       .where({ id: attachmentId, owner_id: actor.id })
       .whereNotNull("project_id")
@@ -329,24 +297,21 @@ export async function removeProjectFile(
       .forUpdate()
       .first("file_key");
     if (!a) throw notFound("No such file.");
-    await trx("attachments").where({ id: attachmentId }).update({ deleted_at: sqlNow() });
+    await trx("attachments").where({ id: attachmentId }).update({ deleted_at: sqlDateTime() });
+    await audit(trx, actor.id, "file.removed", "attachment", attachmentId);
     return a.file_key as string;
   });
 }
 
 /** Soft-delete a project, cancel its open request and return its file keys for deletion from the store. */
-export async function deleteProject(
-  knex: Knex,
-  actor: Actor,
-  projectId: number,
-): Promise<string[]> {
+export async function deleteProject(db: Db, actor: Actor, projectId: number): Promise<string[]> {
   requireHomeowner(actor);
-  return knex.transaction(async (trx) => {
-    await getOwnProject(knex, actor, projectId, trx);
+  return db.transaction(async (trx) => {
+    await getOwnProject(trx, actor, projectId);
     const job = await trx("jobs as j")
       .join("requests as r", "r.id", "j.request_id")
       .where("r.project_id", projectId)
-      .whereIn("j.state", ["funded", "in_review", "delivered", "disputed"])
+      .whereIn("j.state", ACTIVE_JOB_STATES)
       .first("j.id");
     if (job) throw conflict("This project has a review in progress and cannot be deleted yet.");
     await trx("requests")
@@ -356,15 +321,17 @@ export async function deleteProject(
       .where({ project_id: projectId })
       .whereNull("deleted_at")
       .select("file_key");
-    await trx("attachments").where({ project_id: projectId }).update({ deleted_at: sqlNow() });
-    await trx("projects").where({ id: projectId }).update({ deleted_at: sqlNow() });
-    await trx("audit_log").insert({
-      actor_id: actor.id,
-      action: "project.deleted",
-      entity_type: "project",
-      entity_id: projectId,
-      detail: "{}",
-    });
+    await trx("attachments").where({ project_id: projectId }).update({ deleted_at: sqlDateTime() });
+    await trx("projects").where({ id: projectId }).update({ deleted_at: sqlDateTime() });
+    await audit(trx, actor.id, "project.deleted", "project", projectId);
     return files.map((f) => f.file_key as string);
   });
+}
+
+/** The worker's pass, as the system: open requests whose expiry has passed close. */
+export async function expireOpenRequests(db: Db, now = new Date()): Promise<number> {
+  return db("requests")
+    .where({ status: "open" })
+    .andWhere("expires_at", "<=", sqlDateTime(now))
+    .update({ status: "expired" });
 }

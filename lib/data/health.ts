@@ -1,6 +1,4 @@
-import "server-only";
-import type { Knex } from "knex";
-import { db } from "./db";
+import { getDb, type Db } from "./db";
 
 export interface Health {
   status: "ok" | "degraded";
@@ -9,11 +7,11 @@ export interface Health {
 }
 
 /** Ask the database for one row, with a short timeout so a dead server answers quickly. */
-export async function getHealth(knex: Knex = db()): Promise<Health> {
+export async function getHealth(db: Db = getDb()): Promise<Health> {
   let timer: NodeJS.Timeout | undefined;
   try {
     await Promise.race([
-      knex.raw("SELECT 1"),
+      db.raw("SELECT 1"),
       new Promise((_, reject) => {
         timer = setTimeout(() => reject(new Error("database did not answer within 2 s")), 2000);
       }),

@@ -1,7 +1,7 @@
-import "server-only";
-import type { Knex } from "knex";
+import type { Actor } from "./actor";
+import type { Db } from "./db";
 import { forbidden, notFound } from "./errors";
-import { isVerifiedReviewer, type Actor } from "./reviewers";
+import { isVerifiedReviewer } from "./reviewers";
 
 export interface AttachmentRow {
   id: number;
@@ -20,11 +20,11 @@ export interface AttachmentRow {
  * it. Credential evidence: only its reviewer and admins. Anyone else: 403.
  */
 export async function getReadableAttachment(
-  knex: Knex,
+  db: Db,
   actor: Actor,
   id: number,
 ): Promise<AttachmentRow> {
-  const r = await knex("attachments")
+  const r = await db("attachments")
     .where({ id })
     .whereNull("deleted_at")
     .first(
@@ -50,16 +50,16 @@ export async function getReadableAttachment(
   };
   if (actor.role === "admin" || a.ownerId === actor.id) return a;
   if (a.purpose !== "credential_evidence" && a.projectId !== null && actor.role === "reviewer") {
-    const job = await knex("jobs as j")
+    const job = await db("jobs as j")
       .join("requests as r", "r.id", "j.request_id")
       .where({ "r.project_id": a.projectId, "j.reviewer_id": actor.id })
       .whereNot("j.state", "cancelled")
       .first("j.id");
     if (job) return a;
-    const open = await knex("requests")
+    const open = await db("requests")
       .where({ project_id: a.projectId, status: "open" })
       .first("id");
-    if (open && (await isVerifiedReviewer(knex, actor.id))) return a;
+    if (open && (await isVerifiedReviewer(db, actor.id))) return a;
   }
   throw forbidden("You do not have access to this file.");
 }

@@ -1,39 +1,32 @@
-import "server-only";
-import type { Knex } from "knex";
-import { z } from "zod";
-import { notifyNewMessage } from "@/lib/mail/notify";
+import { messageSchema } from "@/lib/validation/message";
 import { env } from "@/lib/env";
-import { forbidden, notFound, unprocessable } from "./errors";
-import type { Actor } from "./reviewers";
+import { sqlDateTime } from "@/lib/time";
+import type { Actor } from "./actor";
+import type { Db } from "./db";
+import { forbidden, notFound, parseInput, unprocessable } from "./errors";
+import { notifyNewMessage } from "./notify";
+import type { Message } from "@/lib/types/messages";
 
-export const messageSchema = z.object({
-  body: z.string().trim().min(1, "Write a message").max(4000, "At most 4,000 characters"),
-});
+export type { Message } from "@/lib/types/messages";
 
-export interface Message {
-  id: number;
-  mine: boolean;
-  senderName: string;
-  bodyMd: string;
-  createdAt: string;
-}
+export { messageSchema } from "@/lib/validation/message";
 
 /**
  * The thread between a request's homeowner and one quoting reviewer. Only those two take part:
  * a reviewer reaches only their own thread; the homeowner names which reviewer's thread.
  */
-async function threadFor(knex: Knex, actor: Actor, requestId: number, reviewerId?: number) {
-  const request = await knex("requests").where({ id: requestId }).first("id", "homeowner_id");
+async function threadFor(db: Db, actor: Actor, requestId: number, reviewerId?: number) {
+  const request = await db("requests").where({ id: requestId }).first("id", "homeowner_id");
   if (!request) throw notFound("No such request.");
   let thread;
   if (actor.role === "reviewer") {
-    thread = await knex("message_threads")
+    thread = await db("message_threads")
       .where({ request_id: requestId, reviewer_id: actor.id })
       .first("id", "reviewer_id");
     if (!thread) throw forbidden("Quote on the request to message the homeowner.");
   } else if (actor.role === "homeowner" && Number(request.homeowner_id) === actor.id) {
     if (!reviewerId) throw unprocessable("Say which reviewer's conversation.");
-    thread = await knex("message_threads")
+    thread = await db("message_threads")
       .where({ request_id: requestId, reviewer_id: reviewerId })
       .first("id", "reviewer_id");
     if (!thread) throw notFound("No conversation with that reviewer.");
@@ -44,13 +37,13 @@ async function threadFor(knex: Knex, actor: Actor, requestId: number, reviewerId
 }
 
 export async function listMessages(
-  knex: Knex,
+  db: Db,
   actor: Actor,
   requestId: number,
   reviewerId?: number,
 ): Promise<Message[]> {
-  const { threadId } = await threadFor(knex, actor, requestId, reviewerId);
-  const rows = await knex("messages as m")
+  const { threadId } = await threadFor(db, actor, requestId, reviewerId);
+  const rows = await db("messages as m")
     .join("users as u", "u.id", "m.sender_id")
     .where("m.thread_id", threadId)
     .orderBy("m.id")
@@ -58,7 +51,7 @@ export async function listMessages(
     .select("m.id", "m.sender_id", "m.body_md", "m.created_at", "u.display_name");
   const last = rows.at(-1);
   if (last) {
-    await knex.raw(
+    await db.raw(
       "INSERT INTO message_reads (thread_id, user_id, last_read_message_id) VALUES (?, ?, ?) ON DUPLICATE KEY UPDATE last_read_message_id = GREATEST(last_read_message_id, VALUES(last_read_message_id))",
       [threadId, actor.id, last.id],
     );
@@ -73,36 +66,30 @@ export async function listMessages(
 }
 
 export async function postMessage(
-  knex: Knex,
+  db: Db,
   actor: Actor,
   requestId: number,
   input: unknown,
   reviewerId?: number,
 ): Promise<number> {
-  const parsed = messageSchema.safeParse(input);
-  if (!parsed.success)
-    throw unprocessable(
-      "The message needs attention.",
-      z.flattenError(parsed.error).fieldErrors as Record<string, string[]>,
-    );
-  const { threadId } = await threadFor(knex, actor, requestId, reviewerId);
-  return knex.transaction(async (trx) => {
+  const v = parseInput(messageSchema, input, "The message needs attention.");
+  const { threadId } = await threadFor(db, actor, requestId, reviewerId);
+  return db.transaction(async (trx) => {
     const [id] = await trx("messages").insert({
       thread_id: threadId,
       sender_id: actor.id,
-      body_md: parsed.data.body,
+      body_md: v.body,
     });
-    await trx("message_threads")
-      .where({ id: threadId })
-      .update({ last_message_at: trx.raw("CURRENT_TIMESTAMP(3)") });
+    await trx("message_threads").where({ id: threadId }).update({ last_message_at: sqlDateTime() });
     await notifyNewMessage(trx, env().APP_URL, Number(id));
     return Number(id);
   });
 }
 
 /** Messages sent to this person that they have not opened yet, across all their threads. */
-export async function countUnread(knex: Knex, userId: number): Promise<number> {
-  const [row] = (await knex("messages as m")
+export async function countUnread(db: Db, actor: Actor): Promise<number> {
+  const userId = actor.id;
+  const [row] = (await db("messages as m")
     .join("message_threads as t", "t.id", "m.thread_id")
     .join("requests as r", "r.id", "t.request_id")
     .leftJoin("message_reads as mr", function () {

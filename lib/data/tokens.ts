@@ -1,5 +1,6 @@
 import { createHash, randomBytes } from "node:crypto";
-import type { Knex } from "knex";
+import { fromSqlDateTime, sqlDateTime } from "@/lib/time";
+import type { Db } from "./db";
 
 export type TokenPurpose = "verify_email" | "reset_password";
 export const TOKEN_TTL_MS: Record<TokenPurpose, number> = {
@@ -8,11 +9,10 @@ export const TOKEN_TTL_MS: Record<TokenPurpose, number> = {
 };
 
 const sha256 = (s: string) => createHash("sha256").update(s).digest("hex");
-const sql = (d: Date) => d.toISOString().slice(0, 23).replace("T", " ");
 
 /** A new single-use token: the raw value goes in the e-mail link, only its hash is stored. */
 export async function issueToken(
-  trx: Knex | Knex.Transaction,
+  trx: Db,
   userId: number,
   purpose: TokenPurpose,
   now = new Date(),
@@ -22,14 +22,14 @@ export async function issueToken(
     user_id: userId,
     purpose,
     token_hash: sha256(raw),
-    expires_at: sql(new Date(now.getTime() + TOKEN_TTL_MS[purpose])),
+    expires_at: sqlDateTime(now, TOKEN_TTL_MS[purpose]),
   });
   return raw;
 }
 
 /** Use a token once: returns its user id, or null when unknown, used or expired. */
 export async function consumeToken(
-  trx: Knex.Transaction,
+  trx: Db,
   raw: string,
   purpose: TokenPurpose,
   now = new Date(),
@@ -38,9 +38,9 @@ export async function consumeToken(
     .where({ token_hash: sha256(raw), purpose })
     .forUpdate()
     .first("id", "user_id", "expires_at", "used_at");
-  if (!row || row.used_at || new Date(`${row.expires_at}Z`).getTime() < now.getTime()) return null;
+  if (!row || row.used_at || fromSqlDateTime(row.expires_at).getTime() < now.getTime()) return null;
   await trx("auth_tokens")
     .where({ id: row.id })
-    .update({ used_at: sql(now) });
+    .update({ used_at: sqlDateTime(now) });
   return Number(row.user_id);
 }

@@ -1,29 +1,13 @@
-import "server-only";
 import type { Knex } from "knex";
 import type { BoardQuery } from "@/lib/validation/board";
+import { DAY_MS, sqlDateTime } from "@/lib/time";
+import type { Actor } from "./actor";
+import type { Db } from "./db";
 import { forbidden, unprocessable } from "./errors";
-import { isVerifiedReviewer, type Actor } from "./reviewers";
+import { isVerifiedReviewer } from "./reviewers";
+import type { BoardItem, BoardPage } from "@/lib/types/board";
 
-export interface BoardItem {
-  id: number;
-  kind: "remote_check" | "site_visit";
-  region: string;
-  collectorType: string | null;
-  budgetMinMinor: number;
-  budgetMaxMinor: number;
-  currency: string;
-  windowStart: string | null;
-  windowEnd: string | null;
-  createdAt: string;
-  expiresAt: string;
-  worstLevel: string | null;
-  distanceKm: number | null;
-}
-
-export interface BoardPage {
-  items: BoardItem[];
-  nextCursor: string | null;
-}
+export type { BoardItem, BoardPage } from "@/lib/types/board";
 
 interface BoardRow {
   id: number;
@@ -41,19 +25,16 @@ interface BoardRow {
   distance_km: number | string | null;
 }
 
-const sqlNow = (offsetMs = 0) =>
-  new Date(Date.now() + offsetMs).toISOString().slice(0, 23).replace("T", " ");
-
 /**
  * The request board: open, unexpired requests, newest first (or by budget), keyset-paginated so
  * page 50 costs what page 1 does. Only verified reviewers see it, and it carries no name, address
  * or e-mail of the homeowner. Served by the requests_board_* indexes (see the EXPLAIN test).
  */
-export async function listBoard(knex: Knex, actor: Actor, q: BoardQuery): Promise<BoardPage> {
-  if (actor.role !== "reviewer" || !(await isVerifiedReviewer(knex, actor.id)))
+export async function listBoard(db: Db, actor: Actor, q: BoardQuery): Promise<BoardPage> {
+  if (actor.role !== "reviewer" || !(await isVerifiedReviewer(db, actor.id)))
     throw forbidden("The board is open to verified reviewers.");
   const limit = q.limit ?? 20;
-  const profile = await knex("reviewer_profiles")
+  const profile = await db("reviewer_profiles")
     .where({ user_id: actor.id })
     .first("centre_lat", "centre_lng");
   const centre =
@@ -66,14 +47,14 @@ export async function listBoard(knex: Knex, actor: Actor, q: BoardQuery): Promis
       { withinKm: ["Needs your centre point"] },
     );
   }
-  const query = buildBoardQuery(knex, q, limit, centre);
+  const query = buildBoardQuery(db, q, limit, centre);
   const rows = (await query) as BoardRow[];
   const page = rows.slice(0, limit);
   // The loop-check level comes from the projects in a second, primary-key lookup, so the board
   // query itself touches only the requests_board_* indexes.
   const levels = new Map<number, string | null>(
     (
-      await knex("projects")
+      await db("projects")
         .whereIn("id", [...new Set(page.map((r) => r.project_id))])
         .select("id", "worst_level")
     ).map((p) => [Number(p.id), p.worst_level]),
@@ -111,8 +92,8 @@ export interface Centre {
 }
 
 /** Great-circle distance in km from the centre (haversine, mean Earth radius 6371 km). */
-function distanceSql(knex: Knex, c: Centre) {
-  return knex.raw(
+function distanceSql(db: Db, c: Centre) {
+  return db.raw(
     "6371 * 2 * ASIN(SQRT(POWER(SIN(RADIANS(r.site_lat - ?) / 2), 2) + COS(RADIANS(?)) * COS(RADIANS(r.site_lat)) * POWER(SIN(RADIANS(r.site_lng - ?) / 2), 2)))",
     [c.lat, c.lat, c.lng],
   );
@@ -124,22 +105,25 @@ function distanceSql(knex: Knex, c: Centre) {
  * offset cursor `o:N`.
  */
 export function buildBoardQuery(
-  knex: Knex,
+  db: Db,
   q: BoardQuery,
   limit: number,
   centre: Centre | null = null,
 ): Knex.QueryBuilder {
   const keyset = q.sort === "newest" || q.sort === "budget";
   const sortColumn = q.sort === "budget" ? "r.budget_max_minor" : "r.created_at";
-  const b = knex("requests as r").where("r.status", "open").andWhere("r.expires_at", ">", sqlNow());
+  const b = db("requests as r")
+    .where("r.status", "open")
+    .andWhere("r.expires_at", ">", sqlDateTime());
   if (q.kind) b.where("r.kind", q.kind);
   if (q.region) b.where("r.region", q.region);
   if (q.collectorType) b.where("r.collector_type", q.collectorType);
   if (q.budgetMin !== undefined) b.where("r.budget_max_minor", ">=", Math.round(q.budgetMin * 100));
   if (q.budgetMax !== undefined) b.where("r.budget_min_minor", "<=", Math.round(q.budgetMax * 100));
-  if (q.postedWithinDays) b.where("r.created_at", ">=", sqlNow(-q.postedWithinDays * 86_400_000));
+  if (q.postedWithinDays)
+    b.where("r.created_at", ">=", sqlDateTime(new Date(), -q.postedWithinDays * DAY_MS));
   if (q.withinKm && centre)
-    b.whereNotNull("r.site_lat").where(distanceSql(knex, centre), "<=", q.withinKm);
+    b.whereNotNull("r.site_lat").where(distanceSql(db, centre), "<=", q.withinKm);
   if (q.sort === "distance") b.whereNotNull("r.site_lat");
   if (q.sort === "soonest") b.whereNotNull("r.window_start");
   if (q.cursor && keyset && q.cursor.includes("|")) {
@@ -152,7 +136,7 @@ export function buildBoardQuery(
     );
   }
   if (q.sort === "distance" && centre)
-    b.orderByRaw("? ASC", [distanceSql(knex, centre)]).orderBy("r.id", "desc");
+    b.orderByRaw("? ASC", [distanceSql(db, centre)]).orderBy("r.id", "desc");
   else if (q.sort === "soonest")
     b.orderBy([
       { column: "r.window_start", order: "asc" },
@@ -180,7 +164,7 @@ export function buildBoardQuery(
       "r.expires_at",
       "r.project_id",
       centre
-        ? knex.raw("? AS distance_km", [distanceSql(knex, centre)])
-        : knex.raw("NULL AS distance_km"),
+        ? db.raw("? AS distance_km", [distanceSql(db, centre)])
+        : db.raw("NULL AS distance_km"),
     );
 }

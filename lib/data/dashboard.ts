@@ -1,6 +1,8 @@
-import "server-only";
 import type { Knex } from "knex";
 import type { Level } from "@/lib/calc/findings";
+import type { Actor } from "./actor";
+import type { Db } from "./db";
+import { forbidden } from "./errors";
 
 export interface ProjectSummary {
   id: number;
@@ -11,8 +13,11 @@ export interface ProjectSummary {
   updatedAt: string;
 }
 
-export async function listOwnProjects(knex: Knex, ownerId: number): Promise<ProjectSummary[]> {
-  const rows = await knex("projects as p")
+/** The homeowner's own projects, most recently changed first, with their open request count. */
+export async function listOwnProjects(db: Db, actor: Actor): Promise<ProjectSummary[]> {
+  if (actor.role !== "homeowner") throw forbidden("Only homeowners have projects.");
+  const ownerId = actor.id;
+  const rows = await db("projects as p")
     .leftJoin("requests as r", function () {
       this.on("r.project_id", "p.id").andOnVal("r.status", "open");
     })
@@ -26,7 +31,7 @@ export async function listOwnProjects(knex: Knex, ownerId: number): Promise<Proj
       "p.status",
       "p.worst_level",
       "p.updated_at",
-      knex.raw("COUNT(r.id) as open_requests"),
+      db.raw("COUNT(r.id) as open_requests"),
     );
   return rows.map((r) => ({
     id: Number(r.id),
@@ -38,14 +43,16 @@ export async function listOwnProjects(knex: Knex, ownerId: number): Promise<Proj
   }));
 }
 
-export async function getAdminCounts(knex: Knex) {
+/** Admin: what waits for an admin, as counts for the dashboard tiles. */
+export async function getAdminCounts(db: Db, actor: Actor) {
+  if (actor.role !== "admin") throw forbidden();
   const count = async (q: Knex.QueryBuilder) =>
     Number(((await q.count({ n: "*" })) as [{ n: number }])[0].n);
   const [pendingCredentials, failedEmails, openDisputes, suspended] = await Promise.all([
-    count(knex("credentials").where({ status: "pending" })),
-    count(knex("email_outbox").where({ status: "failed" })),
-    count(knex("disputes").where({ status: "open" })),
-    count(knex("reviewer_profiles").whereNotNull("suspended_at")),
+    count(db("credentials").where({ status: "pending" })),
+    count(db("email_outbox").where({ status: "failed" })),
+    count(db("disputes").where({ status: "open" })),
+    count(db("reviewer_profiles").whereNotNull("suspended_at")),
   ]);
   return { pendingCredentials, failedEmails, openDisputes, suspended };
 }

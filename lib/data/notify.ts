@@ -3,12 +3,13 @@
  * e-mail needs and queues it in the caller's transaction. Dedupe keys tie an e-mail to its
  * event, so a repeated event (a webhook delivered twice, a retried action) sends nothing new.
  */
-import type { Knex } from "knex";
 import { formatMoney } from "@/lib/money";
 import { credentialName } from "@/lib/credentials";
+import { fromSqlDateTime, sqlDateTime } from "@/lib/time";
+import type { Db } from "./db";
 import { enqueueEmail } from "./outbox";
 
-type Trx = Knex | Knex.Transaction;
+type Trx = Db;
 
 /** At most one new-message e-mail per thread and recipient in this window. */
 export const MESSAGE_EMAIL_WINDOW_MS = 15 * 60_000;
@@ -294,13 +295,34 @@ export async function notifyCredentialRejected(trx: Trx, appUrl: string, credent
   });
 }
 
+/** Credential expiring soon: one warning per credential and expiry date. True when queued. */
+export async function notifyCredentialExpiring(
+  trx: Trx,
+  appUrl: string,
+  credentialId: number,
+): Promise<boolean> {
+  const c = await credentialContext(trx, credentialId);
+  const result = await enqueueEmail(trx, {
+    to: { address: c.email, userId: c.user_id },
+    template: "credential_expiring",
+    payload: {
+      name: c.display_name,
+      credential: credentialName(c.kind),
+      expiresOn: String(c.expires_on),
+      url: `${appUrl}/reviewer/credentials`,
+    },
+    dedupeKey: `credential-${c.id}-expiring-${c.expires_on}`,
+  });
+  return result === "queued";
+}
+
 /**
  * New message in a thread: batched, at most one e-mail per thread and recipient every 15
  * minutes. The recipient's message_reads row is locked so two messages sent at once decide
  * the window together.
  */
 export async function notifyNewMessage(
-  trx: Knex.Transaction,
+  trx: Trx,
   appUrl: string,
   messageId: number,
   now = new Date(),
@@ -338,7 +360,7 @@ export async function notifyNewMessage(
     .first("last_emailed_at");
   if (
     read?.last_emailed_at &&
-    now.getTime() - new Date(`${read.last_emailed_at}Z`).getTime() < MESSAGE_EMAIL_WINDOW_MS
+    now.getTime() - fromSqlDateTime(read.last_emailed_at).getTime() < MESSAGE_EMAIL_WINDOW_MS
   ) {
     return "batched" as const;
   }
@@ -358,7 +380,7 @@ export async function notifyNewMessage(
   if (result === "queued") {
     await trx("message_reads")
       .where({ thread_id: m.thread_id, user_id: recipientId })
-      .update({ last_emailed_at: now.toISOString().slice(0, 23).replace("T", " ") });
+      .update({ last_emailed_at: sqlDateTime(now) });
   }
   return result;
 }

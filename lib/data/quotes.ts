@@ -1,18 +1,20 @@
-import "server-only";
-import type { Knex } from "knex";
-import { z } from "zod";
-import { quoteSchema, type QuoteInput } from "@/lib/validation/quote";
-import { notifyNewQuote, notifyQuoteAccepted, notifyQuoteDeclined } from "@/lib/mail/notify";
+import { quoteSchema } from "@/lib/validation/quote";
 import { env } from "@/lib/env";
 import { haversineKm } from "@/lib/geo";
-import { conflict, forbidden, notFound, unprocessable } from "./errors";
-import { isVerifiedReviewer, type Actor } from "./reviewers";
+import { fromSqlDateTime, sqlDate, sqlDateTime } from "@/lib/time";
+import type { Actor } from "./actor";
+import { audit } from "./audit";
+import type { Db } from "./db";
+import { conflict, forbidden, notFound, parseInput, unprocessable } from "./errors";
+import { parseJson } from "./json";
+import { notifyNewQuote, notifyQuoteAccepted, notifyQuoteDeclined } from "./notify";
+import { isVerifiedReviewer } from "./reviewers";
+import type { QuoteForHomeowner } from "@/lib/types/quotes";
 
-const today = () => new Date().toISOString().slice(0, 10);
-const nowSql = () => new Date().toISOString().slice(0, 23).replace("T", " ");
+export type { QuoteForHomeowner } from "@/lib/types/quotes";
 
-async function requireVerified(knex: Knex, actor: Actor) {
-  if (actor.role !== "reviewer" || !(await isVerifiedReviewer(knex, actor.id)))
+async function requireVerified(db: Db, actor: Actor) {
+  if (actor.role !== "reviewer" || !(await isVerifiedReviewer(db, actor.id)))
     throw forbidden("Only verified reviewers can see requests and quote.");
 }
 
@@ -21,27 +23,21 @@ async function requireVerified(knex: Knex, actor: Actor) {
  * request (a unique index backs this up). A request that closed a moment ago answers 409.
  */
 export async function submitQuote(
-  knex: Knex,
+  db: Db,
   actor: Actor,
   requestId: number,
-  input: QuoteInput,
+  input: unknown,
   appUrl = env().APP_URL,
 ): Promise<number> {
-  await requireVerified(knex, actor);
-  const parsed = quoteSchema.safeParse(input);
-  if (!parsed.success)
-    throw unprocessable(
-      "Some details need attention.",
-      z.flattenError(parsed.error).fieldErrors as Record<string, string[]>,
-    );
-  const v = parsed.data;
-  return knex.transaction(async (trx) => {
+  await requireVerified(db, actor);
+  const v = parseInput(quoteSchema, input);
+  return db.transaction(async (trx) => {
     const r = await trx("requests")
       .where({ id: requestId })
       .forUpdate()
       .first("id", "status", "kind", "expires_at", "window_start", "window_end", "currency");
     if (!r) throw notFound("No such request.");
-    if (r.status !== "open" || new Date(`${r.expires_at}Z`).getTime() <= Date.now())
+    if (r.status !== "open" || fromSqlDateTime(r.expires_at).getTime() <= Date.now())
       throw conflict("This request has just closed: it no longer takes quotes.");
     let visit: string | null = null;
     if (r.kind === "site_visit") {
@@ -50,7 +46,7 @@ export async function submitQuote(
         !visit ||
         visit < String(r.window_start) ||
         visit > String(r.window_end) ||
-        visit < today()
+        visit < sqlDate()
       ) {
         throw unprocessable("Some details need attention.", {
           proposedVisitDate: [`Propose a date between ${r.window_start} and ${r.window_end}`],
@@ -83,53 +79,31 @@ export async function submitQuote(
       actor.id,
     ]);
     await notifyNewQuote(trx, appUrl, Number(id));
-    await trx("audit_log").insert({
-      actor_id: actor.id,
-      action: "quote.submitted",
-      entity_type: "request",
-      entity_id: requestId,
-      detail: JSON.stringify({ quoteId: Number(id) }),
-    });
+    await audit(trx, actor.id, "quote.submitted", "request", requestId, { quoteId: Number(id) });
     return Number(id);
   });
 }
 
-export async function withdrawQuote(knex: Knex, actor: Actor, quoteId: number): Promise<void> {
+export async function withdrawQuote(db: Db, actor: Actor, quoteId: number): Promise<void> {
   if (actor.role !== "reviewer") throw forbidden();
-  const n = await knex("quotes")
+  const n = await db("quotes")
     .where({ id: quoteId, reviewer_id: actor.id, status: "live" })
     .update({ status: "withdrawn" });
   if (n === 0) throw conflict("Only a live quote of yours can be withdrawn.");
 }
 
-export interface QuoteForHomeowner {
-  id: number;
-  reviewerId: number;
-  tradingName: string;
-  yearsInTrade: number;
-  priceMinor: number;
-  currency: string;
-  turnaroundDays: number;
-  scopeMd: string;
-  proposedVisitDate: string | null;
-  status: string;
-  rating: number | null;
-  /** From the reviewer's centre to the site, when both are known. */
-  distanceKm: number | null;
-}
-
 /** The live quotes on one's own request; quotes from suspended or no-longer-verified reviewers are hidden. */
 export async function listQuotesForHomeowner(
-  knex: Knex,
+  db: Db,
   actor: Actor,
   requestId: number,
 ): Promise<QuoteForHomeowner[]> {
   if (actor.role !== "homeowner") throw forbidden();
-  const r = await knex("requests")
+  const r = await db("requests")
     .where({ id: requestId, homeowner_id: actor.id })
     .first("id", "site_lat", "site_lng");
   if (!r) throw notFound("No such request.");
-  const rows = await knex("quotes as q")
+  const rows = await db("quotes as q")
     .join("reviewer_profiles as p", "p.user_id", "q.reviewer_id")
     .where("q.request_id", requestId)
     .whereIn("q.status", ["live", "accepted"])
@@ -140,11 +114,11 @@ export async function listQuotesForHomeowner(
       "p.centre_lat",
       "p.centre_lng",
       "p.years_in_trade",
-      knex.raw("(SELECT AVG(stars) FROM ratings WHERE ratee_id = q.reviewer_id) AS rating"),
+      db.raw("(SELECT AVG(stars) FROM ratings WHERE ratee_id = q.reviewer_id) AS rating"),
     );
   const out: QuoteForHomeowner[] = [];
   for (const q of rows) {
-    if (q.status === "live" && !(await isVerifiedReviewer(knex, Number(q.reviewer_id)))) continue;
+    if (q.status === "live" && !(await isVerifiedReviewer(db, Number(q.reviewer_id)))) continue;
     out.push({
       id: Number(q.id),
       reviewerId: Number(q.reviewer_id),
@@ -177,13 +151,13 @@ export async function listQuotesForHomeowner(
  * created awaiting payment. A second accept, from another tab, finds the request awarded: 409.
  */
 export async function acceptQuote(
-  knex: Knex,
+  db: Db,
   actor: Actor,
   quoteId: number,
   appUrl = env().APP_URL,
 ): Promise<number> {
   if (actor.role !== "homeowner") throw forbidden();
-  return knex.transaction(async (trx) => {
+  return db.transaction(async (trx) => {
     const q = await trx("quotes")
       .where({ id: quoteId })
       .first("id", "request_id", "reviewer_id", "price_minor", "currency", "status");
@@ -199,7 +173,7 @@ export async function acceptQuote(
       );
     const fresh = await trx("quotes").where({ id: quoteId }).forUpdate().first("status");
     if (fresh?.status !== "live") throw conflict("This quote is no longer open to accept.");
-    if (!(await isVerifiedReviewer(trx as unknown as Knex, Number(q.reviewer_id))))
+    if (!(await isVerifiedReviewer(trx, Number(q.reviewer_id))))
       throw conflict("This reviewer cannot take work just now.");
     const fee = Math.round((q.price_minor * env().PLATFORM_FEE_PERCENT) / 100);
     await trx("requests").where({ id: r.id }).update({ status: "awarded" });
@@ -227,26 +201,23 @@ export async function acceptQuote(
     });
     await notifyQuoteAccepted(trx, appUrl, quoteId, Number(jobId));
     for (const o of others) await notifyQuoteDeclined(trx, appUrl, Number(o.id));
-    await trx("audit_log").insert({
-      actor_id: actor.id,
-      action: "quote.accepted",
-      entity_type: "job",
-      entity_id: jobId,
-      detail: JSON.stringify({ quoteId, declined: others.map((o) => Number(o.id)) }),
+    await audit(trx, actor.id, "quote.accepted", "job", Number(jobId), {
+      quoteId,
+      declined: others.map((o) => Number(o.id)),
     });
     return Number(jobId);
   });
 }
 
 export async function declineQuote(
-  knex: Knex,
+  db: Db,
   actor: Actor,
   quoteId: number,
   reason: string | undefined,
   appUrl = env().APP_URL,
 ): Promise<void> {
   if (actor.role !== "homeowner") throw forbidden();
-  await knex.transaction(async (trx) => {
+  await db.transaction(async (trx) => {
     const q = await trx("quotes as q")
       .join("requests as r", "r.id", "q.request_id")
       .where("q.id", quoteId)
@@ -259,7 +230,7 @@ export async function declineQuote(
       .update({
         status: "declined",
         decline_reason: reason?.trim().slice(0, 1000) || null,
-        updated_at: nowSql(),
+        updated_at: sqlDateTime(),
       });
     await notifyQuoteDeclined(trx, appUrl, quoteId);
   });
@@ -302,22 +273,22 @@ export interface RequestForReviewer {
  * too, since homeowners often put their street in it.
  */
 export async function getRequestForReviewer(
-  knex: Knex,
+  db: Db,
   actor: Actor,
   requestId: number,
 ): Promise<RequestForReviewer> {
-  await requireVerified(knex, actor);
-  const r = await knex("requests as r")
+  await requireVerified(db, actor);
+  const r = await db("requests as r")
     .join("projects as p", "p.id", "r.project_id")
     .where("r.id", requestId)
     .first("r.*", "p.system", "p.id as pid");
   if (!r) throw notFound("No such request.");
-  const mine = await knex("quotes")
+  const mine = await db("quotes")
     .where({ request_id: requestId, reviewer_id: actor.id })
     .whereIn("status", ["live", "accepted"])
     .first("id", "price_minor", "turnaround_days", "scope_md", "proposed_visit_date", "status");
   if (r.status !== "open" && !mine) throw notFound("This request is no longer open.");
-  const files = await knex("attachments")
+  const files = await db("attachments")
     .where({ project_id: r.pid })
     .whereNull("deleted_at")
     .orderBy("id")
@@ -334,7 +305,7 @@ export async function getRequestForReviewer(
     windowStart: r.window_start,
     windowEnd: r.window_end,
     accessNotes: r.access_notes,
-    system: typeof r.system === "string" ? JSON.parse(r.system) : r.system,
+    system: parseJson<Record<string, unknown>>(r.system_snapshot ?? r.system),
     files: files.map((f) => ({
       id: Number(f.id),
       purpose: f.purpose,
@@ -353,5 +324,34 @@ export async function getRequestForReviewer(
           status: mine.status,
         }
       : null,
+  };
+}
+
+export interface RequestForHomeowner {
+  id: number;
+  projectId: number;
+  status: "open" | "awarded" | "cancelled" | "expired";
+  kind: "remote_check" | "site_visit";
+  jobId: number | null;
+}
+
+/** One's own request, for the quote comparison page; anyone else's is 404. */
+export async function getRequestForHomeowner(
+  db: Db,
+  actor: Actor,
+  requestId: number,
+): Promise<RequestForHomeowner> {
+  if (actor.role !== "homeowner") throw forbidden();
+  const r = await db("requests as r")
+    .leftJoin("jobs as j", "j.request_id", "r.id")
+    .where({ "r.id": requestId, "r.homeowner_id": actor.id })
+    .first("r.id", "r.project_id", "r.status", "r.kind", "j.id as job_id");
+  if (!r) throw notFound("No such request.");
+  return {
+    id: Number(r.id),
+    projectId: Number(r.project_id),
+    status: r.status,
+    kind: r.kind,
+    jobId: r.job_id === null ? null : Number(r.job_id),
   };
 }

@@ -1,34 +1,26 @@
-import "server-only";
-import type { Knex } from "knex";
 import { z } from "zod";
 import { REQUIRED_CREDENTIAL_KINDS } from "@/lib/credentials";
-import { notifyCredentialRejected, notifyCredentialVerified } from "@/lib/mail/notify";
+import { sqlDate, sqlDateTime } from "@/lib/time";
+import type { Actor } from "./actor";
+import { audit, auditMany } from "./audit";
+import type { Db } from "./db";
+import {
+  notifyCredentialExpiring,
+  notifyCredentialRejected,
+  notifyCredentialVerified,
+} from "./notify";
 import {
   credentialDecisionSchema,
   credentialSchema,
   reviewerProfileSchema,
   suspensionSchema,
-  type CredentialDecisionInput,
-  type CredentialInput,
-  type ReviewerProfileInput,
 } from "@/lib/validation/reviewer";
-import { forbidden, notFound, unprocessable } from "./errors";
-import type { Role } from "./accounts";
+import { forbidden, notFound, parseInput, unprocessable } from "./errors";
+import type { ReviewerProfile } from "@/lib/types/reviewers";
 
-export interface Actor {
-  id: number;
-  role: Role;
-}
+export type { ReviewerProfile } from "@/lib/types/reviewers";
 
-const today = (now = new Date()) => now.toISOString().slice(0, 10);
-const sqlNow = () => new Date().toISOString().slice(0, 23).replace("T", " ");
-
-function invalid(error: z.ZodError): never {
-  throw unprocessable(
-    "Some details need attention.",
-    z.flattenError(error).fieldErrors as Record<string, string[]>,
-  );
-}
+export type { Actor } from "./actor";
 
 export interface VerificationStatus {
   verified: boolean;
@@ -43,15 +35,15 @@ export interface VerificationStatus {
  * and unexpired today.
  */
 export async function getVerificationStatus(
-  knex: Knex,
+  db: Db,
   reviewerId: number,
   now = new Date(),
 ): Promise<VerificationStatus> {
   const [profile, creds] = await Promise.all([
-    knex("reviewer_profiles").where({ user_id: reviewerId }).first("suspended_at"),
-    knex("credentials")
+    db("reviewer_profiles").where({ user_id: reviewerId }).first("suspended_at"),
+    db("credentials")
       .where({ reviewer_id: reviewerId, status: "verified" })
-      .andWhere("expires_on", ">=", today(now))
+      .andWhere("expires_on", ">=", sqlDate(now))
       .distinct("kind"),
   ]);
   const have = new Set(creds.map((c) => c.kind as string));
@@ -66,22 +58,16 @@ export async function getVerificationStatus(
 }
 
 export async function isVerifiedReviewer(
-  knex: Knex,
+  db: Db,
   reviewerId: number,
   now = new Date(),
 ): Promise<boolean> {
-  return (await getVerificationStatus(knex, reviewerId, now)).verified;
+  return (await getVerificationStatus(db, reviewerId, now)).verified;
 }
 
-export async function saveReviewerProfile(
-  knex: Knex,
-  actor: Actor,
-  input: ReviewerProfileInput,
-): Promise<void> {
+export async function saveReviewerProfile(db: Db, actor: Actor, input: unknown): Promise<void> {
   if (actor.role !== "reviewer") throw forbidden();
-  const parsed = reviewerProfileSchema.safeParse(input);
-  if (!parsed.success) invalid(parsed.error);
-  const v = parsed.data;
+  const v = parseInput(reviewerProfileSchema, input);
   const row = {
     trading_name: v.tradingName,
     bio: v.bio,
@@ -94,37 +80,28 @@ export async function saveReviewerProfile(
     hourly_rate_minor:
       v.hourlyRatePounds === undefined ? null : Math.round(v.hourlyRatePounds * 100),
   };
-  await knex("reviewer_profiles")
+  await db("reviewer_profiles")
     .insert({ user_id: actor.id, ...row })
     .onConflict("user_id")
     .merge();
 }
 
-export interface ReviewerProfile {
-  userId: number;
-  displayName: string;
-  tradingName: string;
-  bio: string;
-  yearsInTrade: number;
-  specialisms: string[];
-  region: string;
-  centreLat: number | null;
-  centreLng: number | null;
-  travelRadiusKm: number | null;
-  hourlyRateMinor: number | null;
-  suspendedAt: string | null;
-  suspendedReason: string | null;
-}
-
+/**
+ * A reviewer's profile: the reviewer themself and admins always; anyone (signed in or not) only
+ * while the reviewer is not suspended, as the public profile page shows it.
+ */
 export async function getReviewerProfile(
-  knex: Knex,
+  db: Db,
+  actor: Actor | null,
   reviewerId: number,
 ): Promise<ReviewerProfile | null> {
-  const r = await knex("reviewer_profiles as p")
+  const r = await db("reviewer_profiles as p")
     .join("users as u", "u.id", "p.user_id")
     .where("p.user_id", reviewerId)
     .first("p.*", "u.display_name");
   if (!r) return null;
+  const privileged = actor && (actor.role === "admin" || actor.id === reviewerId);
+  if (!privileged && r.suspended_at) return null;
   return {
     userId: Number(r.user_id),
     displayName: r.display_name,
@@ -187,9 +164,9 @@ function toCredential(r: Record<string, unknown>): Credential {
   };
 }
 
-export async function listOwnCredentials(knex: Knex, actor: Actor): Promise<Credential[]> {
+export async function listOwnCredentials(db: Db, actor: Actor): Promise<Credential[]> {
   if (actor.role !== "reviewer") throw forbidden();
-  const rows = await knex("credentials")
+  const rows = await db("credentials")
     .where({ reviewer_id: actor.id })
     .orderBy("created_at", "desc")
     .select(CREDENTIAL_COLUMNS);
@@ -197,8 +174,8 @@ export async function listOwnCredentials(knex: Knex, actor: Actor): Promise<Cred
 }
 
 /** One credential: its reviewer or an admin; anyone else gets 403 (404 when it does not exist). */
-export async function getCredential(knex: Knex, actor: Actor, id: number): Promise<Credential> {
-  const row = await knex("credentials").where({ id }).first(CREDENTIAL_COLUMNS);
+export async function getCredential(db: Db, actor: Actor, id: number): Promise<Credential> {
+  const row = await db("credentials").where({ id }).first(CREDENTIAL_COLUMNS);
   if (!row) throw notFound("No such credential.");
   if (
     actor.role !== "admin" &&
@@ -208,20 +185,14 @@ export async function getCredential(knex: Knex, actor: Actor, id: number): Promi
   return toCredential(row);
 }
 
-export async function addCredential(
-  knex: Knex,
-  actor: Actor,
-  input: CredentialInput,
-): Promise<number> {
+export async function addCredential(db: Db, actor: Actor, input: unknown): Promise<number> {
   if (actor.role !== "reviewer") throw forbidden();
-  const parsed = credentialSchema.safeParse(input);
-  if (!parsed.success) invalid(parsed.error);
-  const v = parsed.data;
-  if (v.expiresOn < today())
+  const v = parseInput(credentialSchema, input);
+  if (v.expiresOn < sqlDate())
     throw unprocessable("Some details need attention.", {
       expiresOn: ["This credential has already expired"],
     });
-  return knex.transaction(async (trx) => {
+  return db.transaction(async (trx) => {
     const [id] = await trx("credentials").insert({
       reviewer_id: actor.id,
       kind: v.kind,
@@ -230,37 +201,29 @@ export async function addCredential(
       expires_on: v.expiresOn,
       status: "pending",
     });
-    await trx("audit_log").insert({
-      actor_id: actor.id,
-      action: "credential.submitted",
-      entity_type: "credential",
-      entity_id: id,
-      detail: JSON.stringify({ kind: v.kind }),
-    });
+    await audit(trx, actor.id, "credential.submitted", "credential", Number(id), { kind: v.kind });
     return Number(id);
   });
 }
 
 /** Admin: verify (with the expiry date read off the evidence) or reject (with a reason). */
 export async function decideCredential(
-  knex: Knex,
+  db: Db,
   actor: Actor,
-  input: CredentialDecisionInput,
+  input: unknown,
   appUrl: string,
 ): Promise<void> {
   if (actor.role !== "admin") throw forbidden();
-  const parsed = credentialDecisionSchema.safeParse(input);
-  if (!parsed.success) invalid(parsed.error);
-  const v = parsed.data;
-  await knex.transaction(async (trx) => {
+  const v = parseInput(credentialDecisionSchema, input);
+  await db.transaction(async (trx) => {
     const row = await trx("credentials")
       .where({ id: v.credentialId })
       .forUpdate()
       .first("id", "reviewer_id", "status");
     if (!row) throw notFound("No such credential.");
-    const reviewedAt = sqlNow();
+    const reviewedAt = sqlDateTime();
     if (v.decision === "verify") {
-      const status = v.expiresOn < today() ? "expired" : "verified";
+      const status = v.expiresOn < sqlDate() ? "expired" : "verified";
       await trx("credentials").where({ id: v.credentialId }).update({
         status,
         expires_on: v.expiresOn,
@@ -269,12 +232,10 @@ export async function decideCredential(
         reviewed_at: reviewedAt,
         expiry_warned_at: null,
       });
-      await trx("audit_log").insert({
-        actor_id: actor.id,
-        action: "credential.verified",
-        entity_type: "reviewer",
-        entity_id: row.reviewer_id,
-        detail: JSON.stringify({ credentialId: row.id, from: row.status, expiresOn: v.expiresOn }),
+      await audit(trx, actor.id, "credential.verified", "reviewer", Number(row.reviewer_id), {
+        credentialId: Number(row.id),
+        from: row.status,
+        expiresOn: v.expiresOn,
       });
       if (status === "verified") await notifyCredentialVerified(trx, appUrl, row.id);
     } else {
@@ -284,28 +245,20 @@ export async function decideCredential(
         reviewed_by: actor.id,
         reviewed_at: reviewedAt,
       });
-      await trx("audit_log").insert({
-        actor_id: actor.id,
-        action: "credential.rejected",
-        entity_type: "reviewer",
-        entity_id: row.reviewer_id,
-        detail: JSON.stringify({ credentialId: row.id, from: row.status, reason: v.reason }),
+      await audit(trx, actor.id, "credential.rejected", "reviewer", Number(row.reviewer_id), {
+        credentialId: Number(row.id),
+        from: row.status,
+        reason: v.reason,
       });
       await notifyCredentialRejected(trx, appUrl, row.id);
     }
   });
 }
 
-export async function setSuspension(
-  knex: Knex,
-  actor: Actor,
-  input: z.input<typeof suspensionSchema>,
-): Promise<void> {
+export async function setSuspension(db: Db, actor: Actor, input: unknown): Promise<void> {
   if (actor.role !== "admin") throw forbidden();
-  const parsed = suspensionSchema.safeParse(input);
-  if (!parsed.success) invalid(parsed.error);
-  const v = parsed.data;
-  await knex.transaction(async (trx) => {
+  const v = parseInput(suspensionSchema, input);
+  await db.transaction(async (trx) => {
     const p = await trx("reviewer_profiles")
       .where({ user_id: v.reviewerId })
       .forUpdate()
@@ -315,16 +268,17 @@ export async function setSuspension(
       .where({ user_id: v.reviewerId })
       .update(
         v.suspend
-          ? { suspended_at: sqlNow(), suspended_reason: v.reason }
+          ? { suspended_at: sqlDateTime(), suspended_reason: v.reason }
           : { suspended_at: null, suspended_reason: null },
       );
-    await trx("audit_log").insert({
-      actor_id: actor.id,
-      action: v.suspend ? "reviewer.suspended" : "reviewer.reinstated",
-      entity_type: "reviewer",
-      entity_id: v.reviewerId,
-      detail: JSON.stringify({ reason: v.reason }),
-    });
+    await audit(
+      trx,
+      actor.id,
+      v.suspend ? "reviewer.suspended" : "reviewer.reinstated",
+      "reviewer",
+      v.reviewerId,
+      { reason: v.reason },
+    );
   });
 }
 
@@ -348,12 +302,12 @@ export interface QueueRow extends Credential {
 
 /** Admin: the credential verification queue, filtered, sorted and paginated. */
 export async function listCredentialQueue(
-  knex: Knex,
+  db: Db,
   actor: Actor,
   query: QueueQuery,
 ): Promise<{ rows: QueueRow[]; total: number }> {
   if (actor.role !== "admin") throw forbidden();
-  const base = knex("credentials as c")
+  const base = db("credentials as c")
     .join("users as u", "u.id", "c.reviewer_id")
     .leftJoin("reviewer_profiles as p", "p.user_id", "c.reviewer_id")
     .modify((q) => {
@@ -401,12 +355,12 @@ export interface AuditEntry {
 }
 
 export async function listReviewerAudit(
-  knex: Knex,
+  db: Db,
   actor: Actor,
   reviewerId: number,
 ): Promise<AuditEntry[]> {
   if (actor.role !== "admin") throw forbidden();
-  const rows = await knex("audit_log as a")
+  const rows = await db("audit_log as a")
     .leftJoin("users as u", "u.id", "a.actor_id")
     .where((w) =>
       w
@@ -423,4 +377,115 @@ export async function listReviewerAudit(
     detail: typeof r.detail === "string" ? JSON.parse(r.detail) : r.detail,
     createdAt: r.created_at,
   }));
+}
+
+export interface ReviewerAccount {
+  id: number;
+  displayName: string;
+  email: string;
+  createdAt: string;
+}
+
+/** Admin: a reviewer's account and every credential they have submitted, newest first. */
+export async function getReviewerRecord(
+  db: Db,
+  actor: Actor,
+  reviewerId: number,
+): Promise<{ account: ReviewerAccount; credentials: Credential[] } | null> {
+  if (actor.role !== "admin") throw forbidden();
+  const account = await db("users")
+    .where({ id: reviewerId, role: "reviewer" })
+    .first("id", "display_name", "email", "created_at");
+  if (!account) return null;
+  const rows = await db("credentials")
+    .where({ reviewer_id: reviewerId })
+    .orderBy("created_at", "desc")
+    .select(CREDENTIAL_COLUMNS);
+  return {
+    account: {
+      id: Number(account.id),
+      displayName: account.display_name,
+      email: account.email,
+      createdAt: String(account.created_at),
+    },
+    credentials: rows.map(toCredential),
+  };
+}
+
+/** The credential kinds a reviewer holds verified and unexpired today: the public badges. */
+export async function listVerifiedKinds(
+  db: Db,
+  reviewerId: number,
+  now = new Date(),
+): Promise<string[]> {
+  const rows = await db("credentials")
+    .where({ reviewer_id: reviewerId, status: "verified" })
+    .andWhere("expires_on", ">=", sqlDate(now))
+    .distinct("kind");
+  return rows.map((r) => String(r.kind));
+}
+
+/**
+ * The daily expiry pass, run by the worker as the system: verified credentials whose date has
+ * passed become `expired` (audited). Returns how many.
+ */
+export async function expireCredentials(db: Db, now = new Date()): Promise<number> {
+  const today = sqlDate(now);
+  return db.transaction(async (trx) => {
+    const rows = await trx("credentials")
+      .where({ status: "verified" })
+      .andWhere("expires_on", "<", today)
+      .forUpdate()
+      .select("id", "reviewer_id");
+    if (rows.length === 0) return 0;
+    await trx("credentials")
+      .whereIn(
+        "id",
+        rows.map((r) => r.id),
+      )
+      .update({ status: "expired" });
+    await auditMany(
+      trx,
+      rows.map((r) => ({
+        actorId: null,
+        action: "credential.expired",
+        entity: "credential" as const,
+        entityId: Number(r.id),
+        detail: { on: today },
+      })),
+    );
+    return rows.length;
+  });
+}
+
+/**
+ * Warn once about each verified credential that expires within `days` days: one e-mail per
+ * credential and date (deduplicated), queued in the same transaction that marks it warned.
+ * Returns how many warnings were queued.
+ */
+export async function warnExpiringCredentials(
+  db: Db,
+  appUrl: string,
+  now = new Date(),
+  days = 30,
+): Promise<number> {
+  const today = sqlDate(now);
+  const horizon = sqlDate(now, days * 86_400_000);
+  const soon = await db("credentials")
+    .where("status", "verified")
+    .andWhere("expires_on", ">=", today)
+    .andWhere("expires_on", "<=", horizon)
+    .whereNull("expiry_warned_at")
+    .select("id");
+  let warned = 0;
+  for (const c of soon) {
+    await db.transaction(async (trx) => {
+      const queued = await notifyCredentialExpiring(trx, appUrl, Number(c.id));
+      await trx("credentials")
+        .where({ id: c.id })
+        .update({ expiry_warned_at: sqlDateTime(now) });
+      if (queued) warned += 1;
+    });
+  }
+  return warned;
 }

@@ -1,0 +1,178 @@
+import bcrypt from "bcryptjs";
+import { signUpSchema, resetPasswordSchema } from "@/lib/validation/auth";
+import { isCommonPassword } from "@/lib/passwords";
+import { sqlDateTime } from "@/lib/time";
+import type { Actor, Role } from "./actor";
+import { audit } from "./audit";
+import type { Db, Trx } from "./db";
+import { parseInput, unprocessable } from "./errors";
+import { enqueueEmail } from "./outbox";
+import { consumeToken, issueToken } from "./tokens";
+
+export type { Role } from "./actor";
+
+const BCRYPT_ROUNDS = 11;
+// Compared against when the address is unknown, so a wrong address takes as long as a wrong password.
+const DUMMY_HASH = bcrypt.hashSync("not-a-real-password-0000", BCRYPT_ROUNDS);
+
+export interface AuthUser {
+  id: number;
+  email: string;
+  role: Role;
+  displayName: string;
+}
+
+function refuseCommonPassword(password: string): void {
+  if (isCommonPassword(password))
+    throw unprocessable("Some details need attention.", {
+      password: ["This password is on a list of common passwords: choose another"],
+    });
+}
+
+/** A fresh single-use verification link, e-mailed in the caller's transaction. */
+async function queueVerification(
+  trx: Trx,
+  user: { id: number; email: string; name: string },
+  appUrl: string,
+  dedupeKey?: string,
+) {
+  const token = await issueToken(trx, user.id, "verify_email");
+  await enqueueEmail(trx, {
+    to: { address: user.email, userId: user.id },
+    template: "verify_email",
+    payload: { name: user.name, url: `${appUrl}/verify-email?token=${token}` },
+    dedupeKey,
+  });
+}
+
+/** Sign-up: the account, and the verification e-mail in the same transaction. */
+export async function createAccount(db: Db, input: unknown, appUrl: string): Promise<AuthUser> {
+  const v = parseInput(signUpSchema, input);
+  refuseCommonPassword(v.password);
+  const hash = await bcrypt.hash(v.password, BCRYPT_ROUNDS);
+  try {
+    return await db.transaction(async (trx) => {
+      const [id] = await trx("users").insert({
+        email: v.email,
+        password_hash: hash,
+        role: v.role,
+        display_name: v.displayName,
+      });
+      const userId = Number(id);
+      await queueVerification(trx, { id: userId, email: v.email, name: v.displayName }, appUrl);
+      await audit(trx, userId, "user.signed_up", "user", userId, { role: v.role });
+      return { id: userId, email: v.email, role: v.role, displayName: v.displayName };
+    });
+  } catch (err) {
+    if ((err as { code?: string }).code === "ER_DUP_ENTRY") {
+      throw unprocessable("Some details need attention.", {
+        email: ["An account with this e-mail already exists: sign in or reset the password"],
+      });
+    }
+    throw err;
+  }
+}
+
+/** Check a password; null for an unknown address or a wrong password (the caller cannot tell which). */
+export async function authenticate(
+  db: Db,
+  email: string,
+  password: string,
+): Promise<AuthUser | null> {
+  const row = await db("users")
+    .where({ email: email.trim().toLowerCase() })
+    .first("id", "email", "role", "display_name", "password_hash");
+  const ok = await bcrypt.compare(password, row?.password_hash ?? DUMMY_HASH);
+  if (!row || !ok) return null;
+  return { id: Number(row.id), email: row.email, role: row.role, displayName: row.display_name };
+}
+
+/** Confirm an address with the link's token; false when the link is unknown, used or expired. */
+export async function verifyEmail(db: Db, token: string): Promise<boolean> {
+  if (!/^[A-Za-z0-9_-]{20,100}$/.test(token)) return false;
+  return db.transaction(async (trx) => {
+    const userId = await consumeToken(trx, token, "verify_email");
+    if (!userId) return false;
+    await trx("users").where({ id: userId }).update({ email_verified_at: sqlDateTime() });
+    await audit(trx, userId, "user.email_verified", "user", userId);
+    return true;
+  });
+}
+
+/** Always succeeds from the caller's view: whether the address exists is never revealed. */
+export async function requestPasswordReset(db: Db, email: string, appUrl: string): Promise<void> {
+  await db.transaction(async (trx) => {
+    const user = await trx("users")
+      .where({ email: email.trim().toLowerCase() })
+      .first("id", "email", "display_name");
+    if (!user) return;
+    const token = await issueToken(trx, Number(user.id), "reset_password");
+    await enqueueEmail(trx, {
+      to: { address: user.email, userId: Number(user.id) },
+      template: "reset_password",
+      payload: { name: user.display_name, url: `${appUrl}/reset-password?token=${token}` },
+    });
+  });
+}
+
+/** A new password from a reset link; the link is used up, whatever happens next. */
+export async function resetPassword(db: Db, input: unknown): Promise<void> {
+  const v = parseInput(resetPasswordSchema, input);
+  refuseCommonPassword(v.password);
+  const hash = await bcrypt.hash(v.password, BCRYPT_ROUNDS);
+  await db.transaction(async (trx) => {
+    const userId = await consumeToken(trx, v.token, "reset_password");
+    if (!userId)
+      throw unprocessable("This link has expired or was already used.", {
+        token: ["This link has expired or was already used: ask for a new one"],
+      });
+    await trx("users").where({ id: userId }).update({ password_hash: hash });
+    await audit(trx, userId, "user.password_reset", "user", userId);
+  });
+}
+
+/** A fresh verification link for a signed-in user who has not confirmed yet (at most one a minute). */
+export async function resendVerification(db: Db, actor: Actor, appUrl: string): Promise<void> {
+  const userId = actor.id;
+  await db.transaction(async (trx) => {
+    const user = await trx("users")
+      .where({ id: userId })
+      .forUpdate()
+      .first("id", "email", "display_name", "email_verified_at");
+    if (!user || user.email_verified_at) return;
+    await queueVerification(
+      trx,
+      { id: userId, email: user.email, name: user.display_name },
+      appUrl,
+      // At most one resend a minute, however often the button is pressed.
+      `verify-${userId}-${new Date().toISOString().slice(0, 16)}`,
+    );
+  });
+}
+
+/** The signed-in person as every page, action and route handler sees them. */
+export interface SessionUser {
+  id: number;
+  email: string;
+  role: Role;
+  displayName: string;
+  emailVerified: boolean;
+  suspended: boolean;
+}
+
+/** The user a session names, read fresh, so a suspension or role change takes effect at once. */
+export async function getSessionUser(db: Db, id: number): Promise<SessionUser | null> {
+  const row = await db("users as u")
+    .leftJoin("reviewer_profiles as rp", "rp.user_id", "u.id")
+    .where("u.id", id)
+    .first("u.id", "u.email", "u.role", "u.display_name", "u.email_verified_at", "rp.suspended_at");
+  if (!row) return null;
+  return {
+    id: Number(row.id),
+    email: row.email,
+    role: row.role,
+    displayName: row.display_name,
+    emailVerified: row.email_verified_at !== null,
+    suspended: row.suspended_at !== null && row.suspended_at !== undefined,
+  };
+}
