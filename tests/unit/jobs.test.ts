@@ -388,7 +388,7 @@ describe("splitFee", () => {
           expect(feeMinor).toBe(referenceFee(amount, num, decimals));
         },
       ),
-      { numRuns: 2000 },
+      { numRuns: 1000 },
     );
   });
 
@@ -406,7 +406,7 @@ describe("splitFee", () => {
           expect(Math.abs(feeMinor - (amount * percent) / 100)).toBeLessThanOrEqual(0.5 + 1e-6);
         },
       ),
-      { numRuns: 2000 },
+      { numRuns: 1000 },
     );
   });
 
