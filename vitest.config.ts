@@ -3,6 +3,11 @@ import { fileURLToPath } from "node:url";
 
 const root = fileURLToPath(new URL(".", import.meta.url));
 
+/**
+ * Three projects; `vitest run` runs them all, one group after another (unit, then integration,
+ * then e2e), because integration and e2e share the test database. Run one with
+ * `npx vitest run --project unit` (or `npm run test:unit`).
+ */
 export default defineConfig({
   resolve: {
     alias: [
@@ -12,17 +17,46 @@ export default defineConfig({
     ],
   },
   test: {
-    include: [
-      "tests/unit/**/*.test.ts",
-      "tests/integration/**/*.test.ts",
-      "tests/e2e/**/*.test.ts",
-    ],
     environment: "node",
-    // Integration and browser tests share one database and one server: run files one at a time.
-    fileParallelism: false,
-    testTimeout: 30_000,
-    hookTimeout: 120_000,
-    globalSetup: ["tests/support/global-setup.ts"],
     reporters: ["default"],
+    projects: [
+      {
+        // Pure functions: no database, no build, no fakes.
+        extends: true,
+        test: {
+          name: "unit",
+          include: ["tests/unit/**/*.test.ts"],
+          sequence: { groupOrder: 0 },
+        },
+      },
+      {
+        // The real MariaDB test database, and the mail fake for the outbox tests.
+        extends: true,
+        test: {
+          name: "integration",
+          include: ["tests/integration/**/*.test.ts"],
+          globalSetup: ["tests/support/global-setup-integration.ts"],
+          // The files share one database: run them one at a time.
+          fileParallelism: false,
+          testTimeout: 30_000,
+          hookTimeout: 120_000,
+          sequence: { groupOrder: 1 },
+        },
+      },
+      {
+        // The built app on a test port, the fakes, and Debian's Chromium.
+        extends: true,
+        test: {
+          name: "e2e",
+          include: ["tests/e2e/**/*.test.ts"],
+          globalSetup: ["tests/support/global-setup.ts"],
+          // The files share one database and one server: run them one at a time.
+          fileParallelism: false,
+          testTimeout: 30_000,
+          hookTimeout: 120_000,
+          sequence: { groupOrder: 2 },
+        },
+      },
+    ],
   },
 });

@@ -1,21 +1,13 @@
 /**
- * Starts the built app (next start) on a test port against the test database for the browser
- * and HTTP tests, and stops it afterwards. `npm test` builds the app before vitest runs.
+ * Global setup for the e2e project: starts the built app (next start) on a test port against the
+ * test database, with the mail and upload fakes, for the browser and HTTP tests, and stops them
+ * afterwards. `npm test` builds the app before vitest runs.
  * Set E2E_BASE_URL to test a server that is already running instead.
  */
 import { spawn, type ChildProcess } from "node:child_process";
 import { existsSync } from "node:fs";
 import type { TestProject } from "vitest/node";
-import { startMailFake } from "../../mocks/mail/server";
-import { startUploadFake } from "../../mocks/uploads/server";
-
-// The test stack uses its own ports so it can run beside `npm start`; TEST_PORT_OFFSET shifts
-// them all, so two checkouts can run their suites on one machine at once.
-const OFFSET = Number(process.env.TEST_PORT_OFFSET ?? 0);
-const PORT = Number(process.env.E2E_PORT ?? 3100 + OFFSET);
-const MAIL_SMTP_PORT = 2526 + OFFSET;
-const MAIL_HTTP_PORT = 2581 + OFFSET;
-const UPLOAD_PORT = 2591 + OFFSET;
+import { acquireMailFake, acquireUploadFake, TEST_PORTS } from "./fakes";
 
 async function waitFor(url: string, ms: number): Promise<void> {
   const until = Date.now() + ms;
@@ -32,24 +24,25 @@ async function waitFor(url: string, ms: number): Promise<void> {
 }
 
 export default async function setup(project: TestProject) {
-  const mail = await startMailFake({
-    smtpPort: MAIL_SMTP_PORT,
-    httpPort: MAIL_HTTP_PORT,
-    dir: ".data/mail-test",
+  if (!process.env.E2E_BASE_URL && !existsSync(".next/BUILD_ID")) {
+    throw new Error("No production build: run `npx next build` first (npm test does this).");
+  }
+  const PORT = TEST_PORTS.app;
+  const leaveMail = await acquireMailFake();
+  const leaveUploads = await acquireUploadFake().catch(async (e) => {
+    await leaveMail();
+    throw e;
   });
-  project.provide("mailUrl", `http://127.0.0.1:${MAIL_HTTP_PORT}`);
-  project.provide("smtpPort", MAIL_SMTP_PORT);
-  const uploads = await startUploadFake({ port: UPLOAD_PORT, dir: ".data/uploads-test" });
-  project.provide("uploadUrl", `http://127.0.0.1:${UPLOAD_PORT}`);
+  const stopFakes = async () => {
+    await leaveMail();
+    await leaveUploads();
+  };
+  project.provide("mailUrl", `http://127.0.0.1:${TEST_PORTS.mailHttp}`);
+  project.provide("smtpPort", TEST_PORTS.mailSmtp);
+  project.provide("uploadUrl", `http://127.0.0.1:${TEST_PORTS.upload}`);
   if (process.env.E2E_BASE_URL) {
     project.provide("baseUrl", process.env.E2E_BASE_URL);
-    return async () => {
-      await mail.close();
-      await uploads.close();
-    };
-  }
-  if (!existsSync(".next/BUILD_ID")) {
-    throw new Error("No production build: run `npx next build` first (npm test does this).");
+    return stopFakes;
   }
   const child: ChildProcess = spawn(
     process.execPath,
@@ -60,29 +53,25 @@ export default async function setup(project: TestProject) {
         DB_TARGET: "test",
         DB_NAME: process.env.DB_TEST_NAME ?? "loopwright_test",
         APP_URL: `http://127.0.0.1:${PORT}`,
-        SMTP_PORT: String(MAIL_SMTP_PORT),
-        MAIL_FAKE_URL: `http://127.0.0.1:${MAIL_HTTP_PORT}`,
-        UPLOADTHING_INGEST_URL: `http://127.0.0.1:${UPLOAD_PORT}`,
+        SMTP_PORT: String(TEST_PORTS.mailSmtp),
+        MAIL_FAKE_URL: `http://127.0.0.1:${TEST_PORTS.mailHttp}`,
+        UPLOADTHING_INGEST_URL: `http://127.0.0.1:${TEST_PORTS.upload}`,
         NEXT_TELEMETRY_DISABLED: "1",
       },
       stdio: ["ignore", "ignore", "inherit"],
     },
   );
   const baseUrl = `http://127.0.0.1:${PORT}`;
-  await waitFor(`${baseUrl}/api/health`, 30_000);
+  try {
+    await waitFor(`${baseUrl}/api/health`, 30_000);
+  } catch (e) {
+    child.kill("SIGTERM");
+    await stopFakes();
+    throw e;
+  }
   project.provide("baseUrl", baseUrl);
   return async () => {
     child.kill("SIGTERM");
-    await mail.close();
-    await uploads.close();
+    await stopFakes();
   };
-}
-
-declare module "vitest" {
-  export interface ProvidedContext {
-    baseUrl: string;
-    mailUrl: string;
-    smtpPort: number;
-    uploadUrl: string;
-  }
 }

@@ -1,0 +1,15 @@
+/**
+ * Global setup for the integration project: the real MariaDB test database (already migrated by
+ * `npm test`, or by hand: `npx tsx db/migrate.ts latest` with DB_TARGET=test) and the mail fake,
+ * which tests/integration/mail.test.ts reaches through `inject("mailUrl")` and `inject("smtpPort")`.
+ * No build and no app server.
+ */
+import type { TestProject } from "vitest/node";
+import { acquireMailFake, TEST_PORTS } from "./fakes";
+
+export default async function setup(project: TestProject) {
+  const leaveMail = await acquireMailFake();
+  project.provide("mailUrl", `http://127.0.0.1:${TEST_PORTS.mailHttp}`);
+  project.provide("smtpPort", TEST_PORTS.mailSmtp);
+  return leaveMail;
+}
