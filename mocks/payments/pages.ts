@@ -82,7 +82,6 @@ export function checkoutPage(s: CheckoutSession, declined: boolean): string {
   return page(
     "Test checkout",
     `<h1>Test checkout</h1>
-<p class="muted">Payment ${escapeHtml(s.id)}</p>
 <div class="amount" data-testid="amount">${escapeHtml(money(s.amount_total, s.currency))}</div>
 <table><tbody>${rows}</tbody></table>
 ${
@@ -107,7 +106,7 @@ export function connectPage(a: Account, linkId: string): string {
   return page(
     "Complete payout account setup",
     `<h1>Complete payout account setup</h1>
-<p>Payout account <code>${escapeHtml(a.id)}</code>${a.email ? ` for ${escapeHtml(a.email)}` : ""}.</p>
+<p>${a.email ? `Payout account for ${escapeHtml(a.email)}.` : "A new payout account."}</p>
 ${
   done
     ? `<div class="ok">Setup is already complete: this account can receive transfers.</div>`
@@ -125,18 +124,18 @@ export function dashboardPage(a: Account, transfers: Transfer[], balance: Map<st
   const rows = transfers
     .map(
       (t) =>
-        `<tr><td>${escapeHtml(new Date(t.created * 1000).toISOString().slice(0, 16).replace("T", " "))}</td><td><code>${escapeHtml(t.id)}</code></td><td>${escapeHtml(t.description ?? t.transfer_group ?? "")}</td><td class="num">${escapeHtml(money(t.amount, t.currency))}</td></tr>`,
+        `<tr><td>${escapeHtml(new Date(t.created * 1000).toISOString().slice(0, 16).replace("T", " "))}</td><td>${escapeHtml(t.description ?? "Transfer from the platform")}</td><td class="num">${escapeHtml(money(t.amount, t.currency))}</td></tr>`,
     )
     .join("");
   const bal = [...balance].map(([c, n]) => money(n, c)).join(", ") || money(0, a.default_currency);
   return page(
     "Payout account",
     `<h1>Payout account</h1>
-<p><code>${escapeHtml(a.id)}</code>${a.email ? ` · ${escapeHtml(a.email)}` : ""}</p>
+${a.email ? `<p>${escapeHtml(a.email)}</p>` : ""}
 <p>Setup: ${a.details_submitted ? "complete" : "not finished"} · Transfers: ${a.payouts_enabled ? "enabled" : "not enabled"}</p>
 <p>Received in total: <strong>${escapeHtml(bal)}</strong></p>
-<table><thead><tr><th>When (UTC)</th><th>Transfer</th><th>For</th><th class="num">Amount</th></tr></thead>
-<tbody>${rows || '<tr><td colspan="4">No transfers yet.</td></tr>'}</tbody></table>`,
+<table><thead><tr><th>When (UTC)</th><th>Description</th><th class="num">Amount</th></tr></thead>
+<tbody>${rows || '<tr><td colspan="3">No transfers yet.</td></tr>'}</tbody></table>`,
     true,
   );
 }

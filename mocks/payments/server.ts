@@ -148,6 +148,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions = {}): Prom
     url: () => webhookUrl,
     secret: webhookSecret,
     retry: { ...DEFAULT_RETRY, ...options.webhookRetry },
+    get: (id) => core.state.events[id],
     changed: save,
   });
 

