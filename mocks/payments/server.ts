@@ -572,7 +572,13 @@ export async function startPaymentsFake(options: PaymentsFakeOptions = {}): Prom
 
   const sweep = setInterval(() => {
     try {
-      change(() => core.sweepExpired());
+      change(() => {
+        core.sweepExpired();
+        // Keys are kept for a day, as the service keeps them.
+        const cutoff = Date.now() - 24 * 3600 * 1000;
+        for (const [k, r] of Object.entries(core.state.idempotency))
+          if (r.at < cutoff) delete core.state.idempotency[k];
+      });
     } catch (err) {
       console.error("[payments-fake] expiry sweep failed:", err);
     }
