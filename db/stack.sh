@@ -65,6 +65,8 @@ case "${1:-}" in
     trap cleanup EXIT INT TERM
     start_background mail-fake node --import tsx mocks/mail/server.ts
     start_background upload-fake node --import tsx mocks/uploads/server.ts
+    export PAYMENTS_FAKE_WEBHOOK_URL="${PAYMENTS_FAKE_WEBHOOK_URL:-http://127.0.0.1:$PORT/api/webhooks/payments}"
+    start_background payments-fake node --import tsx mocks/payments/server.ts
     start_background worker node --import tsx lib/worker/main.ts
     if [ "$1" = start ]; then
       log "building the app"

@@ -9,14 +9,20 @@
  */
 import { startMailFake } from "../../mocks/mail/server";
 import { startUploadFake } from "../../mocks/uploads/server";
+import { startPaymentsFake } from "../../mocks/payments/server";
 
 const OFFSET = Number(process.env.TEST_PORT_OFFSET ?? 0);
 export const TEST_PORTS = {
   app: Number(process.env.E2E_PORT ?? 3100 + OFFSET),
+  // Each fake has a range of its own, so offsets below 100 never collide.
   mailSmtp: 2526 + OFFSET,
-  mailHttp: 2581 + OFFSET,
-  upload: 2591 + OFFSET,
+  mailHttp: 2626 + OFFSET,
+  upload: 2726 + OFFSET,
+  payments: 12112 + OFFSET,
 };
+
+/** The keys the test stack's payment fake and the app under test share. */
+export const TEST_PAYMENT_KEYS = { secretKey: "sk_test_local", webhookSecret: "whsec_local" };
 
 interface Shared {
   users: number;
@@ -67,11 +73,24 @@ export function acquireUploadFake() {
   );
 }
 
+/** The payment fake; its webhooks go to the app under test (tests can point them elsewhere). */
+export function acquirePaymentsFake() {
+  return acquire("payments", () =>
+    startPaymentsFake({
+      port: TEST_PORTS.payments,
+      ...TEST_PAYMENT_KEYS,
+      webhookUrl: `http://127.0.0.1:${TEST_PORTS.app}/api/webhooks/payments`,
+      dir: ".data/payments-test",
+    }),
+  );
+}
+
 declare module "vitest" {
   export interface ProvidedContext {
     baseUrl: string;
     mailUrl: string;
     smtpPort: number;
     uploadUrl: string;
+    paymentsUrl: string;
   }
 }

@@ -1,13 +1,13 @@
 /**
  * Global setup for the e2e project: starts the built app (next start) on a test port against the
- * test database, with the mail and upload fakes, for the browser and HTTP tests, and stops them
+ * test database, with the mail, upload and payment fakes, for the browser and HTTP tests, and stops them
  * afterwards. `npm test` builds the app before vitest runs.
  * Set E2E_BASE_URL to test a server that is already running instead.
  */
 import { spawn, type ChildProcess } from "node:child_process";
 import { existsSync } from "node:fs";
 import type { TestProject } from "vitest/node";
-import { acquireMailFake, acquireUploadFake, TEST_PORTS } from "./fakes";
+import { acquireMailFake, acquirePaymentsFake, acquireUploadFake, TEST_PORTS } from "./fakes";
 
 async function waitFor(url: string, ms: number): Promise<void> {
   const until = Date.now() + ms;
@@ -33,13 +33,20 @@ export default async function setup(project: TestProject) {
     await leaveMail();
     throw e;
   });
+  const leavePayments = await acquirePaymentsFake().catch(async (e) => {
+    await leaveMail();
+    await leaveUploads();
+    throw e;
+  });
   const stopFakes = async () => {
     await leaveMail();
     await leaveUploads();
+    await leavePayments();
   };
   project.provide("mailUrl", `http://127.0.0.1:${TEST_PORTS.mailHttp}`);
   project.provide("smtpPort", TEST_PORTS.mailSmtp);
   project.provide("uploadUrl", `http://127.0.0.1:${TEST_PORTS.upload}`);
+  project.provide("paymentsUrl", `http://127.0.0.1:${TEST_PORTS.payments}`);
   if (process.env.E2E_BASE_URL) {
     project.provide("baseUrl", process.env.E2E_BASE_URL);
     return stopFakes;
@@ -56,6 +63,9 @@ export default async function setup(project: TestProject) {
         SMTP_PORT: String(TEST_PORTS.mailSmtp),
         MAIL_FAKE_URL: `http://127.0.0.1:${TEST_PORTS.mailHttp}`,
         UPLOADTHING_INGEST_URL: `http://127.0.0.1:${TEST_PORTS.upload}`,
+        STRIPE_API_HOST: "127.0.0.1",
+        STRIPE_API_PORT: String(TEST_PORTS.payments),
+        STRIPE_API_PROTOCOL: "http",
         NEXT_TELEMETRY_DISABLED: "1",
       },
       stdio: ["ignore", "ignore", "inherit"],
