@@ -12,11 +12,11 @@ import {
   splitFee,
   type JobFacts,
 } from "@/lib/jobs";
-import { authenticate } from "@/lib/server/accounts";
-import { listBoard } from "@/lib/server/board";
-import { getOwnProject } from "@/lib/server/projects";
-import { getRequestForReviewer, listQuotesForHomeowner } from "@/lib/server/quotes";
-import { getVerificationStatus, isVerifiedReviewer, type Actor } from "@/lib/server/reviewers";
+import { authenticate } from "@/lib/data/accounts";
+import { listBoard } from "@/lib/data/board";
+import { getOwnProject } from "@/lib/data/projects";
+import { getRequestForReviewer, listQuotesForHomeowner } from "@/lib/data/quotes";
+import { getVerificationStatus, isVerifiedReviewer, type Actor } from "@/lib/data/reviewers";
 import { boardQuerySchema } from "@/lib/validation/board";
 import { systemSchema } from "@/lib/validation/system";
 import { testKnex, truncateAll } from "../support/db";
