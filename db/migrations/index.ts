@@ -4,6 +4,7 @@ import * as marketplace from "./20261201_0002_marketplace";
 import * as jobsAndMoney from "./20261201_0003_jobs_and_money";
 import * as operations from "./20261201_0004_operations";
 import * as requestSnapshots from "./20261202_0010_request_snapshots";
+import * as payments from "./20261202_0011_payments";
 
 /**
  * Every migration, in order. Listed here rather than read from the folder so the same source
@@ -16,6 +17,7 @@ const MIGRATIONS: Record<string, Knex.Migration> = {
   "20261201_0003_jobs_and_money.ts": jobsAndMoney,
   "20261201_0004_operations.ts": operations,
   "20261202_0010_request_snapshots.ts": requestSnapshots,
+  "20261202_0011_payments.ts": payments,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -148,6 +148,39 @@ export async function notifyPaymentReceived(trx: Trx, appUrl: string, jobId: num
   }
 }
 
+/** A refund's receipt, to the homeowner. */
+export async function notifyRefundIssued(
+  trx: Trx,
+  appUrl: string,
+  jobId: number,
+  amountMinor: number,
+) {
+  const j = await jobContext(trx, jobId);
+  return enqueueEmail(trx, {
+    to: { address: j.homeowner_email, userId: j.homeowner_id },
+    template: "refund_issued",
+    payload: {
+      name: j.homeowner_name,
+      projectTitle: j.title,
+      amount: formatMoney(amountMinor, j.currency),
+      url: `${appUrl}/jobs/${j.id}`,
+    },
+    dedupeKey: `job-${j.id}-refund-${amountMinor}`,
+  });
+}
+
+/** The reviewer's payout account has become ready. */
+export async function notifyPayoutAccountReady(trx: Trx, appUrl: string, reviewerId: number) {
+  const u = await trx("users").where({ id: reviewerId }).first("id", "email", "display_name");
+  if (!u) return "opted_out" as const;
+  return enqueueEmail(trx, {
+    to: { address: u.email, userId: Number(u.id) },
+    template: "payout_account_ready",
+    payload: { name: u.display_name, url: `${appUrl}/reviewer/earnings` },
+    dedupeKey: `payout-ready-${reviewerId}`,
+  });
+}
+
 export async function notifyReviewStarted(trx: Trx, appUrl: string, jobId: number) {
   const j = await jobContext(trx, jobId);
   return enqueueEmail(trx, {

@@ -20,6 +20,10 @@ export interface TemplatePayloads {
     releaseBy: string;
     url: string;
   };
+  refund_issued: { name: string; projectTitle: string; amount: string; url: string };
+  payout_account_ready: { name: string; url: string };
+  visit_proposed: { name: string; projectTitle: string; when: string; url: string };
+  visit_confirmed: { name: string; projectTitle: string; when: string; url: string };
   funds_released: { name: string; projectTitle: string; amount: string; url: string };
   dispute_opened: { name: string; projectTitle: string; reason: string; url: string };
   dispute_settled: { name: string; projectTitle: string; resolution: string; url: string };

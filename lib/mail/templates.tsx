@@ -73,6 +73,41 @@ const CONTENT: { [K in TemplateName]: (p: TemplatePayloads[K]) => Content } = {
     ],
     action: { label: "Open the job", url: p.url },
   }),
+  refund_issued: (p) => ({
+    subject: `Refund for ${p.projectTitle}`,
+    heading: "Your refund is on its way",
+    paragraphs: [
+      `${p.amount} for ${p.projectTitle} is refunded to the card you paid with. Banks usually show it within a few working days.`,
+      "This e-mail is your receipt for the refund.",
+    ],
+    action: { label: "Open the job", url: p.url },
+  }),
+  payout_account_ready: (p) => ({
+    subject: "Your payout account is ready",
+    heading: "Your payout account is ready",
+    paragraphs: [
+      "Payments for the reviews you deliver can now be released to you, less the platform fee.",
+    ],
+    action: { label: "See your earnings", url: p.url },
+  }),
+  visit_proposed: (p) => ({
+    subject: `Site visit proposed: ${p.projectTitle}`,
+    heading: "A site visit time is proposed",
+    paragraphs: [
+      `The reviewer proposes to visit for ${p.projectTitle} on ${p.when}. Confirm it, or ask for another time, on the job page.`,
+    ],
+    action: { label: "Open the job", url: p.url },
+    safety: true,
+  }),
+  visit_confirmed: (p) => ({
+    subject: `Site visit confirmed: ${p.projectTitle}`,
+    heading: "The site visit is booked",
+    paragraphs: [
+      `The site visit for ${p.projectTitle} is on ${p.when}. The calendar invitation is attached. Roof work needs a scaffold or tower, never a ladder alone.`,
+    ],
+    action: { label: "Open the job", url: p.url },
+    safety: true,
+  }),
   review_started: (p) => ({
     subject: `Review started: ${p.projectTitle}`,
     heading: "Your review has started",

@@ -7,6 +7,7 @@ import type { Db } from "@/lib/data/db";
 import { expireOpenRequests } from "@/lib/data/projects";
 import { expireCredentials, warnExpiringCredentials } from "@/lib/data/reviewers";
 import { finishTask, takeTaskLease } from "@/lib/data/schedule";
+import { jobServices, releaseDueJobs } from "@/lib/data/jobs";
 
 export interface TaskContext {
   db: Db;
@@ -43,7 +44,20 @@ export const credentialExpiry: Task = {
   },
 };
 
-export const TASKS: Task[] = [expireRequests, credentialExpiry];
+/**
+ * Release held payments whose dispute window has closed with no dispute, through the same
+ * lib/data function the homeowner's "release" button uses (one transfer, exactly once).
+ */
+export const autoRelease: Task = {
+  name: "auto-release",
+  everyMs: 5 * 60_000,
+  async run({ db, now, appUrl }) {
+    const r = await releaseDueJobs(db, now, jobServices({ appUrl }));
+    return `${r.released} job(s) released, ${r.waiting} waiting`;
+  },
+};
+
+export const TASKS: Task[] = [expireRequests, credentialExpiry, autoRelease];
 
 /** Run every task that is due and whose lease this worker wins. */
 export async function runDueTasks(
