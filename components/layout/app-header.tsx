@@ -23,11 +23,14 @@ export function navFor(user: CurrentUser, reviewerVerified: boolean): NavItem[] 
       ...(reviewerVerified ? [{ href: "/board", label: "Request board" }] : []),
       { href: "/reviewer/profile", label: "Profile" },
       { href: "/reviewer/credentials", label: "Credentials" },
+      { href: "/reviewer/earnings", label: "Earnings" },
       { href: "/settings/notifications", label: "E-mail settings" },
     ];
   return [
     ...common,
     { href: "/admin/credentials", label: "Verification queue" },
+    { href: "/admin/disputes", label: "Disputes" },
+    { href: "/admin/ledger", label: "Ledger" },
     { href: "/admin/outbox", label: "E-mail outbox" },
   ];
 }

@@ -1,6 +1,7 @@
 "use server";
 
 import { revalidatePath } from "next/cache";
+import { redirect } from "next/navigation";
 import { z } from "zod";
 import { formValues, runAction, type ActionState } from "@/lib/server/action";
 import { db } from "@/lib/server/db";
@@ -49,7 +50,7 @@ export async function acceptQuoteAction(
     input: formValues(formData),
     run: (actor, ids) => acceptQuote(db(), actor, ids.quoteId),
     done: "Accepted. Next, pay into held funds from the job page.",
-    after: (_r, ids) => revalidatePath(`/requests/${ids.requestId}`),
+    after: (jobId) => redirect(`/jobs/${jobId}`),
   });
 }
 

@@ -240,11 +240,15 @@ export async function startCheckout(
       throw conflict("This job is already paid for, or closed.");
     if (job.checkoutSessionId) {
       const s = await callPayments("looking up the payment", () =>
-        svc.pay.checkout.sessions.retrieve(job.checkoutSessionId!),
+        svc.pay.checkout.sessions.retrieve(job.checkoutSessionId!).catch((err: unknown) => {
+          // A session the service no longer knows is as good as none.
+          if ((err as { code?: string }).code === "resource_missing") return null;
+          throw err;
+        }),
       );
-      if (s.payment_status === "paid")
+      if (s?.payment_status === "paid")
         throw conflict("This payment has gone through; the job page shows it in a moment.");
-      if (s.status === "open" && s.url) return s.url;
+      if (s?.status === "open" && s.url) return s.url;
     }
     const info = await trx("jobs as j")
       .join("requests as r", "r.id", "j.request_id")
@@ -710,7 +714,7 @@ async function jobMoney(db: Db, job: JobRow): Promise<JobMoney> {
     .select("kind", db.raw("SUM(amount_minor) AS total"));
   const sum = (k: string) => Number(rows.find((r) => r.kind === k)?.total ?? 0);
   const charged = sum("charge");
-  const refunded = -sum("refund");
+  const refunded = 0 - sum("refund");
   const paidOut = sum("transfer");
   const fee = sum("fee");
   return {
@@ -784,3 +788,50 @@ export async function listJobs(db: Db, actor: Actor): Promise<JobListItem[]> {
 export const TRANSITION_LABELS = Object.fromEntries(
   Object.values(TRANSITIONS).map((t) => [t.name, t.label]),
 ) as Record<TransitionName, string>;
+
+export interface DisputeSummary {
+  jobId: number;
+  projectTitle: string;
+  reviewerName: string;
+  homeownerName: string;
+  amountMinor: number;
+  currency: string;
+  reason: string;
+  openedAt: string;
+}
+
+/** Admin: the open disputes, oldest first, to settle. */
+export async function listOpenDisputes(db: Db, actor: Actor): Promise<DisputeSummary[]> {
+  if (actor.role !== "admin")
+    throw new HttpError(403, "Only the Loopwright team settles disputes.");
+  const rows = await db("disputes as d")
+    .join("jobs as j", "j.id", "d.job_id")
+    .join("requests as r", "r.id", "j.request_id")
+    .join("projects as p", "p.id", "r.project_id")
+    .join("users as h", "h.id", "j.homeowner_id")
+    .join("users as v", "v.id", "j.reviewer_id")
+    .leftJoin("reviewer_profiles as rp", "rp.user_id", "j.reviewer_id")
+    .where("d.status", "open")
+    .orderBy("d.created_at")
+    .select(
+      "j.id",
+      "p.title",
+      "rp.trading_name",
+      "v.display_name as reviewer_name",
+      "h.display_name as homeowner_name",
+      "j.amount_minor",
+      "j.currency",
+      "d.reason",
+      "d.created_at",
+    );
+  return rows.map((r) => ({
+    jobId: Number(r.id),
+    projectTitle: r.title,
+    reviewerName: r.trading_name ?? r.reviewer_name,
+    homeownerName: r.homeowner_name,
+    amountMinor: Number(r.amount_minor),
+    currency: r.currency,
+    reason: r.reason,
+    openedAt: String(r.created_at),
+  }));
+}

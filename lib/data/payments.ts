@@ -272,7 +272,7 @@ export async function reconcile(
         differences.push({ jobId: Number(j.id), what, ledgerMinor, serviceMinor, note: null });
     };
     compare("charge", ours("charge"), charged);
-    compare("refund", -ours("refund"), refunded);
+    compare("refund", 0 - ours("refund"), refunded);
     compare("transfer", ours("transfer"), transferred);
   }
   return { checkedJobs: jobs.length, differences, at: sqlDateTime() };

@@ -1,5 +1,6 @@
 import { quoteSchema } from "@/lib/validation/quote";
 import { env } from "@/lib/env";
+import { splitFee } from "@/lib/jobs";
 import { haversineKm } from "@/lib/geo";
 import { fromSqlDateTime, sqlDate, sqlDateTime } from "@/lib/time";
 import type { Actor } from "./actor";
@@ -175,7 +176,7 @@ export async function acceptQuote(
     if (fresh?.status !== "live") throw conflict("This quote is no longer open to accept.");
     if (!(await isVerifiedReviewer(trx, Number(q.reviewer_id))))
       throw conflict("This reviewer cannot take work just now.");
-    const fee = Math.round((q.price_minor * env().PLATFORM_FEE_PERCENT) / 100);
+    const fee = splitFee(Number(q.price_minor), env().PLATFORM_FEE_PERCENT).feeMinor;
     await trx("requests").where({ id: r.id }).update({ status: "awarded" });
     await trx("quotes").where({ id: quoteId }).update({ status: "accepted" });
     const others = await trx("quotes")

@@ -3,6 +3,9 @@ import Link from "next/link";
 import { pageUser, type CurrentUser } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
 import { getAdminCounts, listOwnProjects } from "@/lib/data/dashboard";
+import { listJobs } from "@/lib/data/jobs";
+import { formatMoney } from "@/lib/money";
+import { JobStateBadge } from "@/components/jobs/job-state-badge";
 import { getVerificationStatus } from "@/lib/data/reviewers";
 import { credentialName } from "@/lib/credentials";
 import { Card } from "@/components/ui/card";
@@ -21,6 +24,7 @@ export default async function DashboardPage() {
       {user.role === "homeowner" ? <HomeownerPanel user={user} /> : null}
       {user.role === "reviewer" ? <ReviewerPanel userId={user.id} /> : null}
       {user.role === "admin" ? <AdminPanel user={user} /> : null}
+      {user.role !== "admin" ? <JobsPanel user={user} /> : null}
     </div>
   );
 }
@@ -107,7 +111,7 @@ async function AdminPanel({ user }: { user: CurrentUser }) {
   const tiles = [
     { label: "Credentials waiting", value: c.pendingCredentials, href: "/admin/credentials" },
     { label: "E-mails that failed", value: c.failedEmails, href: "/admin/outbox" },
-    { label: "Open disputes", value: c.openDisputes, href: "/dashboard" },
+    { label: "Open disputes", value: c.openDisputes, href: "/admin/disputes" },
     { label: "Suspended reviewers", value: c.suspended, href: "/admin/credentials?status=all" },
   ];
   return (
@@ -123,5 +127,28 @@ async function AdminPanel({ user }: { user: CurrentUser }) {
         </Link>
       ))}
     </div>
+  );
+}
+
+/** The person's jobs, grouped by state in the order they move through. */
+async function JobsPanel({ user }: { user: CurrentUser }) {
+  const jobs = await listJobs(db(), user);
+  if (jobs.length === 0) return null;
+  const viewer = user.role === "homeowner" ? "homeowner" : "reviewer";
+  return (
+    <Card>
+      <h2 className="text-xl font-bold">Your jobs</h2>
+      <ul className="mt-3 divide-y divide-slate-100">
+        {jobs.map((j) => (
+          <li key={j.id} className="flex flex-wrap items-center gap-3 py-3">
+            <JobStateBadge state={j.state} viewer={viewer} />
+            <Link href={`/jobs/${j.id}`} className="flex-1 font-semibold underline">
+              {j.title}
+            </Link>
+            <span className="text-sm text-slate-600">{formatMoney(j.amountMinor, j.currency)}</span>
+          </li>
+        ))}
+      </ul>
+    </Card>
   );
 }
