@@ -3,7 +3,7 @@ import { fileURLToPath } from "node:url";
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   // knex loads every SQL driver lazily; bundling it makes Turbopack look for drivers we never use.
-  serverExternalPackages: ["knex", "mysql2", "nodemailer", "bcryptjs"],
+  serverExternalPackages: ["knex", "mysql2", "nodemailer", "bcryptjs", "stripe"],
   turbopack: { root: fileURLToPath(new URL(".", import.meta.url)) },
   poweredByHeader: false,
   typedRoutes: false,

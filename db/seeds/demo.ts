@@ -10,6 +10,7 @@ import { runLoopCheck } from "../../lib/calc/loop-check";
 import { systemSchema, type SystemInput } from "../../lib/validation/system";
 import { CATALOGUE_VERSION } from "../../lib/checklist/catalogue";
 import { CREDENTIAL_KINDS } from "../../lib/credentials";
+import { splitFee } from "../../lib/jobs";
 
 export const DEMO_PASSWORD = "demo-loop-2026";
 
@@ -135,8 +136,9 @@ export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummar
         travel_radius_km: 40,
         hourly_rate_minor: 5500,
         currency: "GBP",
-        payment_account_id: r.state === "verified" ? `acct_demo_${id}` : null,
-        payouts_enabled: r.state === "verified",
+        // Payout accounts are set up on the payment service's page (the demo tour does it).
+        payment_account_id: null,
+        payouts_enabled: false,
       });
       for (const kind of CREDENTIAL_KINDS) {
         const status =
@@ -229,7 +231,7 @@ export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummar
       }
       if (jobState) {
         const amount = 8500 + i * 100;
-        const fee = Math.round(amount * 0.12);
+        const fee = splitFee(amount, 12).feeMinor;
         const funded = jobState !== "awaiting_payment";
         const delivered = [
           "delivered",

@@ -199,11 +199,12 @@ function paymentFailure(err: unknown, what: string): HttpError {
   const e = err as { type?: string; message?: string; code?: string };
   if (e?.type === "StripeCardError")
     return new HttpError(409, e.message ?? "The card was declined.");
-  if (e?.type === "StripeInvalidRequestError")
+  if (e?.type === "StripeInvalidRequestError" || e?.type === "StripeIdempotencyError")
     return new HttpError(
       409,
       `The payment service refused ${what}: ${e.message ?? "no reason given"}.`,
     );
+  console.error(`[payments] ${what}:`, e?.type ?? "", e?.message ?? err);
   return new HttpError(
     503,
     `The payment service did not answer while ${what}. Nothing has changed; please try again in a moment.`,

@@ -30,7 +30,7 @@ import { verifyPaymentEvent } from "@/lib/payments/client";
 import { testKnex, truncateAll } from "../support/db";
 import { makeAdmin, makeJob, makeReviewer, type ReviewerFixture } from "../support/fixtures";
 import { paymentsFakeControl } from "../support/payments";
-import { TEST_PAYMENT_KEYS } from "../support/fakes";
+import { TEST_PAYMENT_KEYS, TEST_PORTS } from "../support/fakes";
 import { refusalOf } from "../support/status";
 
 describe("held funds through the payment service", () => {
@@ -74,7 +74,8 @@ describe("held funds through the payment service", () => {
     handled.length = 0;
   });
   afterAll(async () => {
-    await fake.config({ webhookUrl: null });
+    // Give the shared fake back to the app under test (the e2e project runs after this one).
+    await fake.config({ webhookUrl: `http://127.0.0.1:${TEST_PORTS.app}/api/webhooks/payments` });
     await new Promise((r) => receiver.close(r));
     await truncateAll(knex);
     await knex.destroy();
