@@ -5,6 +5,8 @@ import type { SystemInput } from "@/lib/validation/system";
 
 const d = (min: number, max: number) =>
   fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
+const maybe = <T>(a: fc.Arbitrary<T>) => fc.option(a, { nil: undefined });
+const position = fc.constantFrom("bottom" as const, "middle" as const, "top" as const);
 
 /** Random systems inside the schema's bounds (used by the property tests and the benchmark). */
 export const arbitrarySystem: fc.Arbitrary<SystemInput> = fc
@@ -16,9 +18,7 @@ export const arbitrarySystem: fc.Arbitrary<SystemInput> = fc
     gross: d(0.5, 8),
     apertureShare: d(0.5, 1),
     content: d(0.1, 15),
-    coeffs: fc.option(fc.record({ eta0: d(0.3, 0.95), a1: d(0.5, 15), a2: d(0, 0.2) }), {
-      nil: undefined,
-    }),
+    coeffs: maybe(fc.record({ eta0: d(0.3, 0.95), a1: d(0.5, 15), a2: d(0, 0.2) })),
     tilt: d(0, 90),
     azimuth: d(-180, 180),
     vent: fc.constantFrom(
@@ -27,13 +27,21 @@ export const arbitrarySystem: fc.Arbitrary<SystemInput> = fc
       "automatic_isolatable" as const,
       "automatic" as const,
     ),
+    ventMax: maybe(d(60, 250)),
+    stagnation: maybe(d(100, 350)),
+    emptying: fc.constantFrom("good" as const, "poor" as const, "unknown" as const),
+    collectorMaxBar: maybe(d(2, 25)),
+    flowMode: fc.constantFrom("high_flow" as const, "low_flow" as const),
+    makerFlow: maybe(d(5, 100)),
+    arrayDrop: maybe(d(0, 200)),
     runs: fc.array(
       fc.record({
         copper: fc.boolean(),
         size: fc.constantFrom(...COPPER_TUBE_IDS),
         bore: d(8, 40),
         length: d(0.1, 150),
-        steam: fc.boolean(),
+        insulated: fc.boolean(),
+        insulationMm: maybe(d(5, 100)),
         fittings: fc.integer({ min: 0, max: 100 }),
       }),
       { minLength: 1, maxLength: 6 },
@@ -43,26 +51,38 @@ export const arbitrarySystem: fc.Arbitrary<SystemInput> = fc
     meterMin: d(0, 500),
     meterSpan: d(10, 2500),
     pumpTemp: d(40, 200),
-    head: fc.option(d(0.5, 20), { nil: undefined }),
+    head: maybe(d(0.5, 20)),
+    lowestBar: maybe(d(2, 25)),
+    pipeToStation: maybe(d(0, 300)),
     vesselL: d(2, 300),
     precharge: d(0.3, 6),
     vesselMax: d(2, 16),
     diaphragm: d(40, 160),
     cooling: fc.boolean(),
+    intermediate: maybe(d(1, 100)),
     glycolType: fc.constantFrom("propylene" as const, "ethylene" as const, "none" as const),
     glycol: d(0, 60),
     solarRated: fc.boolean(),
     cylinderL: d(50, 2000),
     unvented: fc.boolean(),
-    extraCoil: fc.boolean(),
+    solarPosition: position,
+    extraCoil: maybe(position),
+    coilMaxBar: maybe(d(2, 25)),
     joints: fc.constantFrom(
       "compression" as const,
       "press" as const,
       "brazed" as const,
       "soft_soldered" as const,
     ),
+    checkValve: fc.boolean(),
+    airSeparator: fc.boolean(),
+    airSeparatorMax: maybe(d(60, 250)),
+    mixingValve: fc.boolean(),
+    mixingSet: maybe(d(35, 65)),
+    insulationMax: maybe(d(60, 300)),
     fill: d(2, 40),
-    maxT: d(80, 150),
+    maxT: d(120, 160),
+    reach: maybe(d(0, 300)),
   })
   .map((r): SystemInput => ({
     site: { region: r.region, designMinTempC: r.designMinTempC },
@@ -76,6 +96,13 @@ export const arbitrarySystem: fc.Arbitrary<SystemInput> = fc
       tiltDeg: r.tilt,
       azimuthDeg: r.azimuth,
       highPointVent: r.vent,
+      ventMaxTempC: r.ventMax,
+      stagnationTempC: r.stagnation,
+      emptying: r.emptying,
+      maxPressureBar: r.collectorMaxBar,
+      flowMode: r.flowMode,
+      makerFlowLphM2: r.makerFlow,
+      pressureDropKPa: r.arrayDrop,
     },
     pipeRuns: r.runs.map((run, i) => ({
       label: `Run ${i + 1}`,
@@ -83,8 +110,8 @@ export const arbitrarySystem: fc.Arbitrary<SystemInput> = fc
       copperSize: run.copper ? run.size : undefined,
       flexBoreMm: run.copper ? undefined : run.bore,
       lengthM: run.length,
-      insulated: true,
-      inSteamReach: run.steam,
+      insulated: run.insulated,
+      insulationMm: run.insulationMm,
       fittingsCount: run.fittings,
     })),
     pumpStation: {
@@ -95,6 +122,8 @@ export const arbitrarySystem: fc.Arbitrary<SystemInput> = fc
       pumpMaxTempC: r.pumpTemp,
       pumpMaxHeadM: r.head,
       stationContentL: 1,
+      lowestComponentMaxBar: r.lowestBar,
+      pipeToStationM: r.pipeToStation,
     },
     expansionVessel: {
       nominalVolumeL: r.vesselL,
@@ -102,6 +131,7 @@ export const arbitrarySystem: fc.Arbitrary<SystemInput> = fc
       maxPressureBar: r.vesselMax,
       diaphragmMaxTempC: r.diaphragm,
       onCoolingLeg: r.cooling,
+      intermediateVesselL: r.intermediate,
     },
     fluid: {
       glycolType: r.glycolType,
@@ -112,18 +142,28 @@ export const arbitrarySystem: fc.Arbitrary<SystemInput> = fc
       volumeL: r.cylinderL,
       type: r.unvented ? "unvented" : "vented",
       coils: [
-        { heatSource: "solar", position: "bottom", contentL: 4 },
+        { heatSource: "solar", position: r.solarPosition, contentL: 4 },
         ...(r.extraCoil
-          ? [{ heatSource: "boiler" as const, position: "top" as const, contentL: 3 }]
+          ? [{ heatSource: "boiler" as const, position: r.extraCoil, contentL: 3 }]
           : []),
       ],
       immersionHeater: false,
+      solarCoilMaxBar: r.coilMaxBar,
     },
     safety: {
       jointsAtCollector: r.joints,
-      checkValve: true,
-      airSeparator: true,
-      mixingValve: true,
+      checkValve: r.checkValve,
+      airSeparator: r.airSeparator,
+      airSeparatorMaxTempC: r.airSeparatorMax,
+      mixingValve: r.mixingValve,
+      mixingValveSetC: r.mixingSet,
+      insulationMaxTempC: r.insulationMax,
     },
-    design: { fillTempC: r.fill, maxLiquidTempC: r.maxT },
+    design: {
+      fillTempC: r.fill,
+      maxLiquidTempC: r.maxT,
+      ...(r.reach !== undefined
+        ? { steamReachM: r.reach, steamReachReason: "measured at a stagnation test" }
+        : {}),
+    },
   }));
