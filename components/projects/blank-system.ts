@@ -15,6 +15,8 @@ export const BLANK_SYSTEM = {
     tiltDeg: undefined,
     azimuthDeg: 0,
     highPointVent: "manual",
+    emptying: "unknown",
+    flowMode: "high_flow",
   },
   pipeRuns: [
     {
@@ -23,7 +25,6 @@ export const BLANK_SYSTEM = {
       copperSize: "15x0.7",
       lengthM: undefined,
       insulated: true,
-      inSteamReach: false,
       fittingsCount: 8,
     },
   ],
