@@ -916,7 +916,9 @@ function pressureFindings(s: Sections, d: Derived, charts: LoopCheckResult["char
     title: noSeal
       ? `The ${ev.nominalVolumeL} L vessel is too small to hold its ${round(p.sealL, 1)} L water seal`
       : nightLow
-        ? `On a cold night the collector top falls to ${round(night!.topBar, 2)} bar: air can be drawn in and the fluid boils early; raise the pre-charge`
+        ? night!.vesselEmpty
+          ? `On a cold night the vessel runs out of fluid and the collector top falls below ${round(night!.topBar, 2)} bar: air can be drawn in and the fluid boils early; raise the pre-charge`
+          : `On a cold night the collector top falls to ${round(night!.topBar, 2)} bar: air can be drawn in and the fluid boils early; raise the pre-charge`
         : reserveLow
           ? `Once the vessel's reserve is used, the collector top falls below the air's pressure: raise the pre-charge`
           : `Fill to ${round(p.fillBar, 2)} bar at the pump station, cold (${fillTempC} °C)`,
