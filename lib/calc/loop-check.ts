@@ -18,7 +18,9 @@ import {
   safetySchema,
   siteSchema,
   type SystemDraft,
+  type SystemSection,
 } from "@/lib/validation/system";
+import { describeFieldPath, SECTION_TITLES } from "@/lib/validation/system-fields";
 import {
   copperInnerDiameterMm,
   copperOuterDiameterMm,
@@ -172,25 +174,9 @@ interface Sections {
   design: Parsed<typeof designSchema>;
 }
 
-const SECTION_NAMES: Record<string, string> = {
-  site: "Site",
-  collectors: "Collector array",
-  pipeRuns: "Pipe runs",
-  pumpStation: "Pump station",
-  expansionVessel: "Expansion vessel",
-  fluid: "Heat-transfer fluid",
-  cylinder: "Cylinder and coils",
-  safety: "Fittings and safety devices",
-  design: "Design temperatures",
-};
-
 function parseSections(draft: SystemDraft, findings: Finding[]): Sections {
   const out: Sections = { design: designSchema.parse(undefined) };
-  const take = <S extends z.ZodType>(
-    name: keyof typeof SECTION_NAMES,
-    schema: S,
-    value: unknown,
-  ) => {
+  const take = <S extends z.ZodType>(name: SystemSection, schema: S, value: unknown) => {
     if (value === undefined || value === null) {
       findings.push(missing(name, "not filled in yet"));
       return undefined;
@@ -198,8 +184,7 @@ function parseSections(draft: SystemDraft, findings: Finding[]): Sections {
     const r = schema.safeParse(value);
     if (r.success) return r.data as Parsed<S>;
     const first = r.error.issues[0];
-    const where = first && first.path.length ? `${first.path.join(".")}: ` : "";
-    findings.push(missing(name, `${where}${first?.message ?? "invalid"}`));
+    findings.push(missing(name, issueText(name, first)));
     return undefined;
   };
   out.site = take("site", siteSchema, draft.site);
@@ -209,10 +194,7 @@ function parseSections(draft: SystemDraft, findings: Finding[]): Sections {
     draft.pipeRuns.forEach((run, i) => {
       const r = pipeRunSchema.safeParse(run);
       if (r.success) runs.push(r.data);
-      else
-        findings.push(
-          missing("pipeRuns", `run ${i + 1}: ${r.error.issues[0]?.message ?? "invalid"}`),
-        );
+      else findings.push(missing("pipeRuns", issueText("pipeRuns", r.error.issues[0], [i])));
     });
     if (runs.length === draft.pipeRuns.length) out.pipeRuns = runs;
   } else {
@@ -226,16 +208,27 @@ function parseSections(draft: SystemDraft, findings: Finding[]): Sections {
   if (draft.design !== undefined) {
     const d = designSchema.safeParse(draft.design);
     if (d.success) out.design = d.data;
-    else findings.push(missing("design", d.error.issues[0]?.message ?? "invalid"));
+    else findings.push(missing("design", issueText("design", d.error.issues[0])));
   }
   return out;
 }
 
-function missing(section: string, detail: string): Finding {
+/** A schema issue in words: the field's label (never its key) and the message. */
+function issueText(
+  section: SystemSection,
+  issue: { path: PropertyKey[]; message: string } | undefined,
+  prefix: PropertyKey[] = [],
+): string {
+  if (!issue) return "invalid";
+  const where = describeFieldPath(section, [...prefix, ...issue.path]);
+  return where ? `${where}: ${issue.message}` : issue.message;
+}
+
+function missing(section: SystemSection, detail: string): Finding {
   return {
     key: "input",
     level: "note",
-    title: `${SECTION_NAMES[section] ?? section}: ${detail}`,
+    title: `${SECTION_TITLES[section]}: ${detail}`,
     values: [],
     source: "Loopwright input checks",
     action:
@@ -243,14 +236,14 @@ function missing(section: string, detail: string): Finding {
   };
 }
 
-function skipped(key: FindingKey, what: string, needs: string[]): Finding {
+function skipped(key: FindingKey, what: string, needs: SystemSection[]): Finding {
   return {
     key,
     level: "note",
     title: `${what} not checked yet`,
     values: [],
     source: "Loopwright input checks",
-    action: `Needs: ${needs.map((n) => SECTION_NAMES[n] ?? n).join(", ")}.`,
+    action: `Needs: ${needs.map((n) => SECTION_TITLES[n]).join(", ")}.`,
   };
 }
 
@@ -801,7 +794,14 @@ function pressureFindings(s: Sections, d: Derived, charts: LoopCheckResult["char
     d.loopVolumeL === undefined ||
     !d.fluid
   ) {
-    const needs = ["pumpStation", "expansionVessel", "fluid", "collectors", "pipeRuns", "cylinder"];
+    const needs: SystemSection[] = [
+      "pumpStation",
+      "expansionVessel",
+      "fluid",
+      "collectors",
+      "pipeRuns",
+      "cylinder",
+    ];
     return [skipped("vessel-size", "Expansion vessel size and pressures", needs)];
   }
   const ps = s.pumpStation;

@@ -192,19 +192,12 @@ export const systemSchema = z.object({
 export type SystemInput = z.input<typeof systemSchema>;
 export type System = z.output<typeof systemSchema>;
 
-/** The sections of a description in the order the stepped form asks for them. */
-export const systemSections = [
-  "site",
-  "collectors",
-  "pipeRuns",
-  "pumpStation",
-  "expansionVessel",
-  "fluid",
-  "cylinder",
-  "safety",
-  "design",
-] as const;
-export type SystemSection = (typeof systemSections)[number];
+/**
+ * The sections of a description in the order the stepped form asks for them: the keys of
+ * `systemSchema`, so a new section is added there and nowhere else.
+ */
+export type SystemSection = keyof typeof systemSchema.shape;
+export const systemSections = Object.keys(systemSchema.shape) as readonly SystemSection[];
 
 /**
  * A draft: any section may be missing or half-filled (a homeowner saves step by step).
@@ -220,14 +213,5 @@ export const systemDraftSchema = z.object(
 );
 
 /** Each step's schema, for saving one step of a draft at a time. */
-export const sectionSchemas: Record<SystemSection, z.ZodType> = {
-  site: siteSchema,
-  collectors: collectorArraySchema,
-  pipeRuns: systemSchema.shape.pipeRuns,
-  pumpStation: pumpStationSchema,
-  expansionVessel: expansionVesselSchema,
-  fluid: fluidSchema,
-  cylinder: cylinderSchema,
-  safety: safetySchema,
-  design: designSchema,
-};
+export const sectionSchemas: { [K in SystemSection]: (typeof systemSchema.shape)[K] } =
+  systemSchema.shape;
