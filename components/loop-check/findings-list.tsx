@@ -37,8 +37,8 @@ export function FindingsList({ findings }: FindingsListProps) {
                   {f.values.length > 0 ? (
                     <table className="mt-3 w-full text-sm">
                       <tbody>
-                        {f.values.map((v) => (
-                          <tr key={v.label} className="border-t border-slate-100">
+                        {f.values.map((v, j) => (
+                          <tr key={`${j}-${v.label}`} className="border-t border-slate-100">
                             <th
                               scope="row"
                               className="py-1 pr-3 text-left font-normal text-slate-600"
@@ -58,6 +58,14 @@ export function FindingsList({ findings }: FindingsListProps) {
                     <strong>What to do:</strong> {f.action}
                   </p>
                   <p className="mt-1 text-xs text-slate-500">Source: {f.source}</p>
+                  {f.method ? (
+                    <details className="mt-2 text-sm text-slate-700">
+                      <summary className="cursor-pointer font-medium text-slate-800">
+                        How this is worked out
+                      </summary>
+                      <p className="mt-1">{f.method}</p>
+                    </details>
+                  ) : null}
                 </li>
               ))}
             </ul>

@@ -1,6 +1,12 @@
 "use client";
 
-import { get, useFieldArray, type FieldErrors, type UseFormReturn } from "react-hook-form";
+import {
+  get,
+  useFieldArray,
+  type FieldErrors,
+  type Path,
+  type UseFormReturn,
+} from "react-hook-form";
 import { Field, inputClass } from "@/components/ui/field";
 import { Button } from "@/components/ui/button";
 import type { SystemInput } from "@/lib/validation/system";
@@ -19,7 +25,7 @@ function errorText(errors: FieldErrors<SystemInput>, name: string): string | und
 const asNumber = (v: unknown) =>
   v === "" || v === null || v === undefined ? undefined : Number(v);
 
-function Control({ form, def, name }: { form: Form; def: FieldDef; name: string }) {
+function Control({ form, def, name }: { form: Form; def: FieldDef; name: Path<SystemInput> }) {
   const { register, formState } = form;
   const id = toId(name);
   const error = errorText(formState.errors, name);
@@ -27,8 +33,7 @@ function Control({ form, def, name }: { form: Form; def: FieldDef; name: string 
     "aria-invalid": error ? true : undefined,
     "aria-describedby": `${id}-error`,
   } as const;
-  // Paths come from the section data, so they are checked at run time by the schema rather than by the type.
-  const path = name as Parameters<Form["register"]>[0];
+  const path = name;
   if (def.kind === "checkbox") {
     return (
       <div className="flex flex-col gap-1">
@@ -93,7 +98,7 @@ function Control({ form, def, name }: { form: Form; def: FieldDef; name: string 
 function ListFields({ form, list }: { form: Form; list: NonNullable<SectionDef["list"]> }) {
   const { fields, append, remove } = useFieldArray({
     control: form.control,
-    name: list.name as "pipeRuns",
+    name: list.name,
   });
   const listError = errorText(form.formState.errors, list.name);
   return (
@@ -109,7 +114,8 @@ function ListFields({ form, list }: { form: Form; list: NonNullable<SectionDef["
                 key={def.name}
                 form={form}
                 def={def}
-                name={`${list.name}.${index}.${def.name}`}
+                // The row's field names are the row schema's own keys (see system-fields).
+                name={`${list.name}.${index}.${def.name}` as Path<SystemInput>}
               />
             ))}
           </div>

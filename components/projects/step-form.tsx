@@ -4,6 +4,7 @@ import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { useForm } from "react-hook-form";
 import type { SystemInput } from "@/lib/validation/system";
+import type { SystemFormValues } from "@/lib/validation/system-fields";
 import { Button } from "@/components/ui/button";
 import { SectionFields } from "@/components/loop-check/section-fields";
 import { SECTIONS } from "@/components/loop-check/system-fields";
@@ -12,7 +13,7 @@ import { saveStep } from "./actions";
 export interface StepFormProps {
   projectId: number;
   step: (typeof SECTIONS)[number]["id"];
-  defaultValues: SystemInput;
+  defaultValues: SystemFormValues;
 }
 
 /** One step of the stepped description form; saves the step as a draft and moves on. */

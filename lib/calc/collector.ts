@@ -62,3 +62,37 @@ export function stagnationTemperatureC(
   if (c.a1 > 0) return taC + (c.eta0 * g) / c.a1;
   return Number.POSITIVE_INFINITY;
 }
+
+/**
+ * Conservative stagnation temperatures, °C, for when the collector's test report is not to hand
+ * (typical EN ISO 9806 test reports give about 180–220 °C for selective flat plates and about
+ * 250–300 °C for evacuated tubes; recalled from memory, not published values). Extrapolating the
+ * efficiency curve to η = 0 reads low against such reports, so the estimate takes the higher.
+ */
+export const CONSERVATIVE_STAGNATION_C: Record<"flat_plate" | "evacuated_tube", number> = {
+  flat_plate: 220,
+  evacuated_tube: 300,
+};
+
+export interface StagnationEstimate {
+  tempC: number;
+  /** Where the figure came from, in plain words. */
+  basis: "test report" | "conservative default" | "efficiency curve";
+}
+
+/**
+ * The stagnation temperature the hot zone must take: the test report's figure when given;
+ * otherwise the higher of the efficiency-curve extrapolation and the conservative default.
+ */
+export function stagnationEstimate(
+  type: "flat_plate" | "evacuated_tube",
+  coefficients: EfficiencyCoefficients,
+  reportedC?: number,
+): StagnationEstimate {
+  if (reportedC !== undefined) return { tempC: reportedC, basis: "test report" };
+  const curve = stagnationTemperatureC(coefficients);
+  const fallback = CONSERVATIVE_STAGNATION_C[type];
+  return Number.isFinite(curve) && curve > fallback
+    ? { tempC: curve, basis: "efficiency curve" }
+    : { tempC: fallback, basis: "conservative default" };
+}

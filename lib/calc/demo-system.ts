@@ -3,6 +3,8 @@ import type { SystemInput } from "@/lib/validation/system";
 /**
  * The example system on the public loop-check page: an invented two-storey house with two
  * flat-plate collectors on a south-west roof. Demo figures, not from any real installation.
+ * Its 12 L vessel is deliberately too small once the steam reach is computed, so the example
+ * shows what the check finds.
  */
 export const demoSystem: SystemInput = {
   site: { region: "south-west", postcodeArea: "", designMinTempC: -12 },
@@ -15,6 +17,9 @@ export const demoSystem: SystemInput = {
     tiltDeg: 40,
     azimuthDeg: 20,
     highPointVent: "manual",
+    emptying: "unknown",
+    maxPressureBar: 10,
+    flowMode: "high_flow",
   },
   pipeRuns: [
     {
@@ -23,7 +28,6 @@ export const demoSystem: SystemInput = {
       copperSize: "15x0.7",
       lengthM: 4,
       insulated: true,
-      inSteamReach: true,
       fittingsCount: 4,
     },
     {
@@ -32,7 +36,6 @@ export const demoSystem: SystemInput = {
       copperSize: "15x0.7",
       lengthM: 22,
       insulated: true,
-      inSteamReach: false,
       fittingsCount: 12,
     },
   ],
@@ -44,6 +47,7 @@ export const demoSystem: SystemInput = {
     pumpMaxTempC: 110,
     pumpMaxHeadM: 6,
     stationContentL: 1,
+    lowestComponentMaxBar: 10,
   },
   expansionVessel: {
     nominalVolumeL: 12,
@@ -61,14 +65,16 @@ export const demoSystem: SystemInput = {
       { heatSource: "boiler", position: "top", contentL: 3 },
     ],
     immersionHeater: true,
+    solarCoilMaxBar: 10,
   },
   safety: {
     jointsAtCollector: "compression",
     checkValve: true,
     airSeparator: true,
-    airSeparatorMaxTempC: 130,
+    airSeparatorMaxTempC: 180,
     mixingValve: true,
-    mixingValveSetC: 50,
+    mixingValveSetC: 48,
+    insulationMaxTempC: 175,
   },
   design: { fillTempC: 15, maxLiquidTempC: 120 },
 };

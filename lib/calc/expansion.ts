@@ -4,7 +4,7 @@
  * specifics: steam volume at stagnation, pre-charge from static height). The constants
  * marked "from memory" below were recalled, not read from the standards.
  */
-import { glycolDensity, GLYCOL_MAX_TEMP_C } from "./glycol";
+import { glycolDensity, GLYCOL_MAX_TEMP_C, type GlycolKind } from "./glycol";
 import { waterDensity } from "./water-if97";
 import { cToK } from "./units";
 
@@ -21,9 +21,26 @@ export function recommendedPrechargeBar(staticHeightM: number): number {
   return Math.max(staticHeightM * 0.1 + 0.4, 1.2);
 }
 
-/** Cold fill pressure, bar g: pre-charge + 0.3 bar (EN 12828, from memory). */
+/** The least cold fill pressure, bar g: pre-charge + 0.3 bar (EN 12828, from memory). */
 export function fillPressureBar(prechargeBar: number): number {
   return prechargeBar + 0.3;
+}
+
+/**
+ * The cold fill pressure, bar g, that puts the water seal `sealL` into a vessel of `nominalL`
+ * pre-charged to `prechargeBar` (the pre-charge actually set): Boyle's law on the gas side,
+ * (p₀ + 1) V_n = (p_a + 1)(V_n − V_v), and never below EN 12828's p₀ + 0.3 bar. Infinity when
+ * the vessel is no larger than the seal. Source: VDI 6002-1 (the seal is in the vessel at the
+ * fill temperature), EN 12828 Annex D; from memory.
+ */
+export function fillPressureForSealBar(
+  nominalL: number,
+  prechargeBar: number,
+  sealL: number,
+): number {
+  if (nominalL <= sealL) return Number.POSITIVE_INFINITY;
+  const boyle = ((prechargeBar + 1) * nominalL) / (nominalL - sealL) - 1;
+  return Math.max(boyle, fillPressureBar(prechargeBar));
 }
 
 /** Final (maximum working) pressure, bar g, from the relief setting (EN 12828, from memory). */
@@ -50,15 +67,17 @@ export function thermalExpansion(
   fillC: number,
   maxC: number,
   pressureMPa = 0.4,
+  kind: GlycolKind = "propylene",
 ): ExpansionResult {
-  const water = (c: number) => waterDensity(cToK(c), pressureMPa);
+  // IF97 Region 1 starts at 0 °C: a colder plain-water loop is frozen anyway.
+  const water = (c: number) => waterDensity(cToK(Math.max(c, 0)), pressureMPa);
   if (glycolPercent <= 0) {
     const coefficient = water(fillC) / water(maxC) - 1;
     return { coefficient, expansionL: volumeL * coefficient, basis: "water, IAPWS-IF97 Region 1" };
   }
   const top = Math.min(maxC, GLYCOL_MAX_TEMP_C);
-  let ratio = glycolDensity(glycolPercent, fillC) / glycolDensity(glycolPercent, top);
-  let basis = `propylene glycol ${glycolPercent} %, Melinder (2010)`;
+  let ratio = glycolDensity(glycolPercent, fillC, kind) / glycolDensity(glycolPercent, top, kind);
+  let basis = `${kind} glycol ${glycolPercent} %, Melinder (2010)`;
   if (maxC > GLYCOL_MAX_TEMP_C) {
     ratio *= water(GLYCOL_MAX_TEMP_C) / water(maxC);
     basis += `, to ${GLYCOL_MAX_TEMP_C} °C; water's expansion (IAPWS-IF97) from ${GLYCOL_MAX_TEMP_C} to ${maxC} °C`;
@@ -109,4 +128,29 @@ export function vesselPressureBar(
   const gas = gasAtFill - displacedL;
   if (gas <= 0) return Number.POSITIVE_INFINITY;
   return (nominalL * (prechargeBar + 1)) / gas - 1;
+}
+
+export interface VesselState {
+  /** Pressure at the vessel, bar g (Infinity once the gas side is used up). */
+  pressureBar: number;
+  /** The vessel has given back all its fluid: the loop is at (or falling below) the pre-charge. */
+  empty: boolean;
+}
+
+/**
+ * The vessel once `changeL` has entered it since filling (negative when the loop contracts, e.g.
+ * on a cold night). When contraction exceeds the fluid the vessel holds, the vessel is empty and
+ * the loop pressure is at most the pre-charge: the rest of the contraction pulls a vacuum at the
+ * high point, where air is drawn in. Boyle's law on the gas side.
+ */
+export function vesselState(
+  nominalL: number,
+  prechargeBar: number,
+  fillBar: number,
+  changeL: number,
+): VesselState {
+  const gasAtFill = Math.min(nominalL, (nominalL * (prechargeBar + 1)) / (fillBar + 1));
+  const gas = gasAtFill - changeL;
+  if (gas >= nominalL) return { pressureBar: prechargeBar, empty: true };
+  return { pressureBar: vesselPressureBar(nominalL, prechargeBar, fillBar, changeL), empty: false };
 }

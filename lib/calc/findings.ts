@@ -16,7 +16,14 @@ export const FINDING_KEYS = [
   "hydraulics",
   "collector-output",
   "stagnation",
+  "steam-reach",
+  "fluid",
+  "pipe-insulation",
   "component-ratings",
+  "scald",
+  "store-size",
+  "coil-position",
+  "unvented",
   "first-fill",
   "input",
 ] as const;
@@ -33,8 +40,10 @@ export interface Finding {
   level: Level;
   title: string;
   values: FindingValue[];
-  /** Where the formula or the limit comes from. */
+  /** Where the formula or the limit comes from: the standard's name, briefly. */
   source: string;
+  /** How this is worked out, for the curious: formula, assumptions and marks of provenance. */
+  method?: string;
   /** What to do about it, in plain words. */
   action: string;
 }

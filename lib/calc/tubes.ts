@@ -38,3 +38,13 @@ export function litresPerMetre(innerDiameterMm: number): number {
   const d = innerDiameterMm / 1000;
   return (Math.PI * d * d * 1000) / 4;
 }
+
+/** Outer diameter in mm of an EN 1057 tube. */
+export function copperOuterDiameterMm(id: CopperTubeId): number {
+  const tube = COPPER_TUBES.find((t) => t.id === id);
+  if (!tube) throw new RangeError(`unknown tube ${id}`);
+  return tube.outerMm;
+}
+
+/** Corrugated flexible pipe: outer diameter taken as the bore + 5 mm (common practice estimate). */
+export const FLEX_OUTER_EXTRA_MM = 5;

@@ -24,6 +24,10 @@ export const jointKinds = ["compression", "press", "brazed", "soft_soldered"] as
 export const ventKinds = ["none", "manual", "automatic_isolatable", "automatic"] as const;
 export const heatSources = ["solar", "boiler", "solid_fuel", "heat_pump"] as const;
 export const glycolTypes = ["propylene", "ethylene", "none"] as const;
+/** How well the collector empties of liquid when it boils (VDI 6002-1 steam-producing power). */
+export const emptyingKinds = ["good", "poor", "unknown"] as const;
+/** Low-flow 12–24 L/(m²·h) (Kalogirou 2009) or high-flow 30–50 (common practice). */
+export const flowModes = ["high_flow", "low_flow"] as const;
 
 export const siteSchema = z.object({
   region: z.enum(REGION_IDS, { error: "Choose a region" }),
@@ -51,6 +55,16 @@ export const collectorArraySchema = z
     azimuthDeg: num(-180, 180, "°"),
     highPointVent: z.enum(ventKinds),
     ventMaxTempC: num(60, 250, "°C").optional(),
+    /** From the collector's EN ISO 9806 test report. */
+    stagnationTempC: num(100, 350, "°C").optional(),
+    emptying: z.enum(emptyingKinds).default("unknown"),
+    /** The collector's maximum operating pressure (data plate or test report). */
+    maxPressureBar: num(2, 25, "bar").optional(),
+    flowMode: z.enum(flowModes).default("high_flow"),
+    /** The collector maker's specific flow, when given: it replaces the low/high-flow figure. */
+    makerFlowLphM2: num(5, 100, "L/(m²·h)").optional(),
+    /** Pressure drop of the whole array at the design flow, from the maker's figures. */
+    pressureDropKPa: num(0, 200, "kPa").optional(),
   })
   .refine((c) => c.apertureAreaM2Each <= c.grossAreaM2Each, {
     path: ["apertureAreaM2Each"],
@@ -67,8 +81,8 @@ export const pipeRunSchema = z
     flexContentLPerM: num(0.03, 1.5, "L/m").optional(),
     lengthM: num(0.1, 150, "m"),
     insulated: z.boolean(),
-    /** Runs at the collector that fill with steam at stagnation (VDI 6002 steam reach). */
-    inSteamReach: z.boolean(),
+    /** Insulation wall thickness; 20 mm is assumed for an insulated run when not given. */
+    insulationMm: num(5, 100, "mm").optional(),
     fittingsCount: int(0, 100, "fittings"),
   })
   .superRefine((run, ctx) => {
@@ -88,6 +102,8 @@ export const pumpStationSchema = z
     stationContentL: num(0, 10, "L"),
     /** The lowest maximum-pressure rating of any valve, meter or seal in the loop. */
     lowestComponentMaxBar: num(2, 25, "bar").optional(),
+    /** Pipe between the collector and the pump station, flow and return together; all runs when not given. */
+    pipeToStationM: num(0, 300, "m").optional(),
   })
   .refine((p) => p.flowMeterMaxLph > p.flowMeterMinLph, {
     path: ["flowMeterMaxLph"],
@@ -101,6 +117,8 @@ export const expansionVesselSchema = z.object({
   diaphragmMaxTempC: num(40, 160, "°C"),
   /** On an uninsulated leg below its connection, or behind an intermediate cooling vessel. */
   onCoolingLeg: z.boolean(),
+  /** An intermediate (cooling) vessel between the loop and the expansion vessel, if fitted. */
+  intermediateVesselL: num(1, 100, "L").optional(),
 });
 
 export const fluidSchema = z
@@ -126,6 +144,8 @@ export const cylinderSchema = z
     type: z.enum(["vented", "unvented"]),
     coils: z.array(coilSchema).min(1, "Add the solar coil").max(4, "At most 4 coils"),
     immersionHeater: z.boolean(),
+    /** The solar coil's maximum operating pressure (cylinder data plate). */
+    solarCoilMaxBar: num(2, 25, "bar").optional(),
   })
   .refine((c) => c.coils.some((coil) => coil.heatSource === "solar"), {
     path: ["coils"],
@@ -145,8 +165,15 @@ export const safetySchema = z.object({
 export const designSchema = z
   .object({
     fillTempC: num(2, 40, "°C"),
-    /** Highest liquid temperature in the loop; steam beyond this is counted separately. */
-    maxLiquidTempC: num(80, 150, "°C"),
+    /** Highest liquid temperature for the expansion; never below 120 °C (common practice). */
+    maxLiquidTempC: num(120, 160, "°C"),
+    /** A steam reach known better than the estimate (a stagnation test, a reviewer's figure). */
+    steamReachM: num(0, 300, "m").optional(),
+    steamReachReason: z.string().trim().max(200, "At most 200 characters").optional(),
+  })
+  .refine((d) => d.steamReachM === undefined || (d.steamReachReason ?? "").length >= 10, {
+    path: ["steamReachReason"],
+    message: "Say where the steam reach comes from (at least 10 characters)",
   })
   .default({ fillTempC: 15, maxLiquidTempC: 120 });
 
@@ -165,19 +192,12 @@ export const systemSchema = z.object({
 export type SystemInput = z.input<typeof systemSchema>;
 export type System = z.output<typeof systemSchema>;
 
-/** The sections of a description in the order the stepped form asks for them. */
-export const systemSections = [
-  "site",
-  "collectors",
-  "pipeRuns",
-  "pumpStation",
-  "expansionVessel",
-  "fluid",
-  "cylinder",
-  "safety",
-  "design",
-] as const;
-export type SystemSection = (typeof systemSections)[number];
+/**
+ * The sections of a description in the order the stepped form asks for them: the keys of
+ * `systemSchema`, so a new section is added there and nowhere else.
+ */
+export type SystemSection = keyof typeof systemSchema.shape;
+export const systemSections = Object.keys(systemSchema.shape) as readonly SystemSection[];
 
 /**
  * A draft: any section may be missing or half-filled (a homeowner saves step by step).
@@ -193,14 +213,5 @@ export const systemDraftSchema = z.object(
 );
 
 /** Each step's schema, for saving one step of a draft at a time. */
-export const sectionSchemas: Record<SystemSection, z.ZodType> = {
-  site: siteSchema,
-  collectors: collectorArraySchema,
-  pipeRuns: systemSchema.shape.pipeRuns,
-  pumpStation: pumpStationSchema,
-  expansionVessel: expansionVesselSchema,
-  fluid: fluidSchema,
-  cylinder: cylinderSchema,
-  safety: safetySchema,
-  design: designSchema,
-};
+export const sectionSchemas: { [K in SystemSection]: (typeof systemSchema.shape)[K] } =
+  systemSchema.shape;

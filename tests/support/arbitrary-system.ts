@@ -1,129 +1,79 @@
 import fc from "fast-check";
-import { REGION_IDS } from "@/lib/regions";
-import { COPPER_TUBE_IDS } from "@/lib/calc/tubes";
-import type { SystemInput } from "@/lib/validation/system";
+import { z } from "zod";
+import { systemSchema, type SystemInput } from "@/lib/validation/system";
 
-const d = (min: number, max: number) =>
-  fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
+/**
+ * Random systems inside the schema's bounds (used by the property tests and the benchmark),
+ * generated from `systemSchema` itself: every field, its bounds, its options and whether it is
+ * optional come from the schema, so a new field is covered without an edit here. Only the
+ * schema's cross-field rules are repaired afterwards (`repair`), and anything still invalid is
+ * filtered out.
+ */
 
-/** Random systems inside the schema's bounds (used by the property tests and the benchmark). */
-export const arbitrarySystem: fc.Arbitrary<SystemInput> = fc
-  .record({
-    region: fc.constantFrom(...REGION_IDS),
-    designMinTempC: d(-45, 15),
-    type: fc.constantFrom("flat_plate" as const, "evacuated_tube" as const),
-    count: fc.integer({ min: 1, max: 40 }),
-    gross: d(0.5, 8),
-    apertureShare: d(0.5, 1),
-    content: d(0.1, 15),
-    coeffs: fc.option(fc.record({ eta0: d(0.3, 0.95), a1: d(0.5, 15), a2: d(0, 0.2) }), {
-      nil: undefined,
-    }),
-    tilt: d(0, 90),
-    azimuth: d(-180, 180),
-    vent: fc.constantFrom(
-      "none" as const,
-      "manual" as const,
-      "automatic_isolatable" as const,
-      "automatic" as const,
-    ),
-    runs: fc.array(
-      fc.record({
-        copper: fc.boolean(),
-        size: fc.constantFrom(...COPPER_TUBE_IDS),
-        bore: d(8, 40),
-        length: d(0.1, 150),
-        steam: fc.boolean(),
-        fittings: fc.integer({ min: 0, max: 100 }),
-      }),
-      { minLength: 1, maxLength: 6 },
-    ),
-    staticHeight: d(0, 40),
-    relief: d(1.5, 10),
-    meterMin: d(0, 500),
-    meterSpan: d(10, 2500),
-    pumpTemp: d(40, 200),
-    head: fc.option(d(0.5, 20), { nil: undefined }),
-    vesselL: d(2, 300),
-    precharge: d(0.3, 6),
-    vesselMax: d(2, 16),
-    diaphragm: d(40, 160),
-    cooling: fc.boolean(),
-    glycolType: fc.constantFrom("propylene" as const, "ethylene" as const, "none" as const),
-    glycol: d(0, 60),
-    solarRated: fc.boolean(),
-    cylinderL: d(50, 2000),
-    unvented: fc.boolean(),
-    extraCoil: fc.boolean(),
-    joints: fc.constantFrom(
-      "compression" as const,
-      "press" as const,
-      "brazed" as const,
-      "soft_soldered" as const,
-    ),
-    fill: d(2, 40),
-    maxT: d(80, 150),
-  })
-  .map((r): SystemInput => ({
-    site: { region: r.region, designMinTempC: r.designMinTempC },
-    collectors: {
-      type: r.type,
-      count: r.count,
-      grossAreaM2Each: r.gross,
-      apertureAreaM2Each: r.gross * r.apertureShare,
-      fluidContentLEach: r.content,
-      ...(r.coeffs ?? {}),
-      tiltDeg: r.tilt,
-      azimuthDeg: r.azimuth,
-      highPointVent: r.vent,
-    },
-    pipeRuns: r.runs.map((run, i) => ({
-      label: `Run ${i + 1}`,
-      material: run.copper ? ("copper" as const) : ("stainless_flex" as const),
-      copperSize: run.copper ? run.size : undefined,
-      flexBoreMm: run.copper ? undefined : run.bore,
-      lengthM: run.length,
-      insulated: true,
-      inSteamReach: run.steam,
-      fittingsCount: run.fittings,
-    })),
-    pumpStation: {
-      staticHeightM: r.staticHeight,
-      reliefValveBar: r.relief,
-      flowMeterMinLph: r.meterMin,
-      flowMeterMaxLph: Math.min(3000, r.meterMin + r.meterSpan),
-      pumpMaxTempC: r.pumpTemp,
-      pumpMaxHeadM: r.head,
-      stationContentL: 1,
-    },
-    expansionVessel: {
-      nominalVolumeL: r.vesselL,
-      prechargeBar: r.precharge,
-      maxPressureBar: r.vesselMax,
-      diaphragmMaxTempC: r.diaphragm,
-      onCoolingLeg: r.cooling,
-    },
-    fluid: {
-      glycolType: r.glycolType,
-      glycolPercentMass: r.glycolType === "none" ? 0 : r.glycol,
-      solarRated: r.solarRated,
-    },
-    cylinder: {
-      volumeL: r.cylinderL,
-      type: r.unvented ? "unvented" : "vented",
-      coils: [
-        { heatSource: "solar", position: "bottom", contentL: 4 },
-        ...(r.extraCoil
-          ? [{ heatSource: "boiler" as const, position: "top" as const, contentL: 3 }]
-          : []),
-      ],
-      immersionHeater: false,
-    },
-    safety: {
-      jointsAtCollector: r.joints,
-      checkValve: true,
-      airSeparator: true,
-      mixingValve: true,
-    },
-    design: { fillTempC: r.fill, maxLiquidTempC: r.maxT },
-  }));
+/** Longest random list: enough variety without making each run slow. */
+const MAX_ROWS = 6;
+
+function checkValue(schema: z.ZodType, check: string, key: "minimum" | "maximum") {
+  const checks = (schema.def as { checks?: { _zod: { def: Record<string, unknown> } }[] }).checks;
+  const c = checks?.find((x) => x._zod.def.check === check);
+  return c ? (c._zod.def[key] as number) : undefined;
+}
+
+function arbitraryFor(schema: z.ZodType): fc.Arbitrary<unknown> {
+  if (schema instanceof z.ZodOptional)
+    return fc.option(arbitraryFor(schema.unwrap() as z.ZodType), { nil: undefined, freq: 2 });
+  if (schema instanceof z.ZodDefault)
+    // Missing (half the time), so the default applies, or a value of its own.
+    return fc.option(arbitraryFor(schema.unwrap() as z.ZodType), { nil: undefined, freq: 2 });
+  if (schema instanceof z.ZodObject) {
+    const shape = schema.shape as Record<string, z.ZodType>;
+    return fc.record(
+      Object.fromEntries(Object.entries(shape).map(([k, v]) => [k, arbitraryFor(v)])),
+    );
+  }
+  if (schema instanceof z.ZodArray) {
+    const min = checkValue(schema, "min_length", "minimum") ?? 0;
+    const max = Math.min(checkValue(schema, "max_length", "maximum") ?? MAX_ROWS, MAX_ROWS);
+    return fc.array(arbitraryFor(schema.element as z.ZodType), { minLength: min, maxLength: max });
+  }
+  if (schema instanceof z.ZodNumber) {
+    const min = schema.minValue ?? -1e6;
+    const max = schema.maxValue ?? 1e6;
+    return schema.isInt
+      ? fc.integer({ min: Math.ceil(min), max: Math.floor(max) })
+      : fc.double({ min, max, noNaN: true, noDefaultInfinity: true });
+  }
+  if (schema instanceof z.ZodEnum) return fc.constantFrom(...(schema.options as string[]));
+  if (schema instanceof z.ZodBoolean) return fc.boolean();
+  if (schema instanceof z.ZodString) {
+    const max = Math.min(schema.maxLength ?? 12, 12);
+    return fc.stringMatching(new RegExp(`^[A-Za-z0-9]{1,${Math.max(max, 1)}}$`));
+  }
+  throw new TypeError(`no generator for ${schema.constructor.name}`);
+}
+
+type Draft = Record<string, Record<string, unknown> & unknown[]>;
+
+/** Make a random system meet the schema's cross-field rules, as a homeowner's form would. */
+function repair(raw: unknown): SystemInput {
+  const s = structuredClone(raw) as Draft;
+  const c = s.collectors as unknown as Record<string, number>;
+  c.apertureAreaM2Each = Math.min(c.apertureAreaM2Each!, c.grossAreaM2Each!);
+  const ps = s.pumpStation as unknown as Record<string, number>;
+  const [lo, hi] = [ps.flowMeterMinLph!, ps.flowMeterMaxLph!].sort((a, b) => a - b);
+  ps.flowMeterMinLph = Math.min(lo!, 2990);
+  ps.flowMeterMaxLph = Math.max(hi!, ps.flowMeterMinLph + 10);
+  for (const run of s.pipeRuns as unknown as Record<string, unknown>[])
+    if (run.material === "copper" && run.copperSize === undefined) run.copperSize = "15x0.7";
+  const fluid = s.fluid as unknown as Record<string, unknown>;
+  if (fluid.glycolType === "none") fluid.glycolPercentMass = 0;
+  const cylinder = s.cylinder as unknown as { coils: Record<string, unknown>[] };
+  cylinder.coils[0]!.heatSource = "solar";
+  const design = s.design as unknown as Record<string, unknown> | undefined;
+  if (design?.steamReachM !== undefined) design.steamReachReason = "measured at a stagnation test";
+  return s as unknown as SystemInput;
+}
+
+export const arbitrarySystem: fc.Arbitrary<SystemInput> = arbitraryFor(systemSchema)
+  .map(repair)
+  .filter((s) => systemSchema.safeParse(s).success);

@@ -59,4 +59,36 @@ describe("buildChecklist", () => {
         expect(produced.has(item.computed), item.key).toBe(true);
     }
   });
+
+  it("covers the hazards a practitioner's review added: steam at the station, return-side valves, heat traps, night pressure, fluid testing, the relief valve's temperature", () => {
+    const keys = build(demoSystem).items.map((i) => i.key);
+    for (const k of [
+      "steam-reach",
+      "return-side",
+      "heat-trap",
+      "night-pressure",
+      "fluid-testing",
+      "relief-temperature",
+      "store-size",
+      "pipe-insulation",
+    ])
+      expect(keys, k).toContain(k);
+    const steam = build(demoSystem).items.find((i) => i.key === "steam-reach");
+    expect(steam?.evidence.map((f) => f.key)).toEqual(["steam-reach"]);
+    expect(steam?.photo).toMatch(/pump station/);
+  });
+
+  it("asks for a high-temperature cut-out only on an unvented cylinder", () => {
+    const unvented = build(demoSystem).items.map((i) => i.key);
+    expect(unvented).toContain("unvented-cutout");
+    const s = structuredClone(demoSystem);
+    s.cylinder = { ...s.cylinder, type: "vented" };
+    expect(build(s).items.map((i) => i.key)).not.toContain("unvented-cutout");
+  });
+
+  it("has the loop pressure tested with the solar fluid itself, never water first (common practice)", () => {
+    const test = CATALOGUE.find((i) => i.key === "pressure-test");
+    expect(test?.check).toMatch(/solar fluid itself/);
+    expect(test?.check).not.toMatch(/before it is filled/);
+  });
 });

@@ -85,6 +85,13 @@ describe("runLoopCheck on the example system", () => {
       "collector-output",
       "stagnation",
       "component-ratings",
+      "steam-reach",
+      "fluid",
+      "pipe-insulation",
+      "scald",
+      "store-size",
+      "coil-position",
+      "unvented",
     ]) {
       expect(keys.has(k as Finding["key"]), k).toBe(true);
     }
@@ -106,8 +113,10 @@ describe("runLoopCheck on the example system", () => {
       finalPressureBar: pe,
     });
     expect(Number(value(f, "Required nominal volume"))).toBeCloseTo(expected, 0);
-    // The steam volume is the two collectors (2 × 1.6 L) plus 4 m of 15 × 0.7 tube (0.1453 L/m, EN 1057).
-    expect(steam).toBeCloseTo(3.2 + 4 * 0.1453, 2);
+    // The steam volume is the two collectors (2 × 1.6 L) plus the pipe within the computed steam
+    // reach, 15 × 0.7 tube at 0.1453 L/m (EN 1057).
+    const reach = Number(value(find(result.findings, "steam-reach")[0], "Steam reach"));
+    expect(steam).toBeCloseTo(3.2 + reach * 0.1453, 1);
   });
 
   it("turns the vessel finding to `fix` when the vessel is too small and back to `ok` when enlarged", () => {
