@@ -202,7 +202,7 @@ function paymentFailure(err: unknown, what: string): HttpError {
   if (e?.type === "StripeInvalidRequestError" || e?.type === "StripeIdempotencyError")
     return new HttpError(
       409,
-      `The payment service refused ${what}: ${e.message ?? "no reason given"}.`,
+      `The payment service refused ${what}: ${(e.message ?? "no reason given").replace(/\.$/, "")}.`,
     );
   console.error(`[payments] ${what}:`, e?.type ?? "", e?.message ?? err);
   return new HttpError(

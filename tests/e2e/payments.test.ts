@@ -23,6 +23,8 @@ describe("paying into held funds in Chromium", () => {
   beforeAll(async () => {
     knex = testKnex();
     await truncateAll(knex);
+    // Job ids start again with the truncated database: so must the fake's idempotency keys.
+    await fake.reset();
     await fake.config({ webhookUrl: `${baseUrl}/api/webhooks/payments` });
     browser = await launchBrowser();
   });
