@@ -5,7 +5,7 @@ import { fileTypeFromBuffer } from "file-type";
 import { z } from "zod";
 import { getCurrentUser } from "../auth/session";
 import { db } from "../db";
-import { fetchStoredFile, utapi } from "./config";
+import { fetchStoredFile, UntrustedFileUrlError, utapi } from "./config";
 import { PHOTO_TAGS } from "@/lib/validation/request";
 
 const f = createUploadthing();
@@ -30,7 +30,12 @@ async function recordUpload(
   file: { key: string; name: string; size: number; ufsUrl: string },
   write: (mime: string) => Promise<number>,
 ): Promise<UploadResult> {
-  const head = await fetchStoredFile(file.ufsUrl, 4100);
+  const head = await fetchStoredFile(file.ufsUrl, 4100).catch((err: unknown) => {
+    if (err instanceof UntrustedFileUrlError) return null;
+    throw err;
+  });
+  // A file on another host is not ours to delete: refuse it and touch nothing.
+  if (!head) return { ok: false, error: "The upload service reported a file we cannot read." };
   const detected = head.ok
     ? await fileTypeFromBuffer(new Uint8Array(await head.arrayBuffer()))
     : undefined;

@@ -14,7 +14,7 @@ export async function GET(_req: Request, ctx: { params: Promise<{ id: string }> 
     const id = idSchema.safeParse((await ctx.params).id);
     if (!id.success) throw new HttpError(400, "The file id must be a positive whole number.");
     const a = await getReadableAttachment(db(), user, id.data);
-    const stored = await fetchStoredFile(`${uploadConfig().ingestUrl}/f/${a.fileKey}`);
+    const stored = await fetchStoredFile(`${uploadConfig().filesUrl}/f/${a.fileKey}`);
     if (!stored.ok || !stored.body) throw new HttpError(404, "The file is no longer stored.");
     return new Response(stored.body, {
       headers: {
