@@ -3,6 +3,7 @@ import * as accounts from "./20261201_0001_accounts";
 import * as marketplace from "./20261201_0002_marketplace";
 import * as jobsAndMoney from "./20261201_0003_jobs_and_money";
 import * as operations from "./20261201_0004_operations";
+import * as thumbnails from "./20261202_0005_thumbnails";
 
 /**
  * Every migration, in order. Listed here rather than read from the folder so the same source
@@ -14,6 +15,7 @@ const MIGRATIONS: Record<string, Knex.Migration> = {
   "20261201_0002_marketplace.ts": marketplace,
   "20261201_0003_jobs_and_money.ts": jobsAndMoney,
   "20261201_0004_operations.ts": operations,
+  "20261202_0005_thumbnails.ts": thumbnails,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -6,6 +6,7 @@
  * for the app's /callback-result, and answers the PUT with the server data.
  *
  *   POST /route-metadata, PUT|HEAD /:key?signed, POST /callback-result
+ *   (a PUT for a key with no route registered is a server-side UTApi.uploadFiles: stored, no callback)
  *   GET  /f/:key        the file (needs the API key header, or a signed URL)
  *   POST /v6/deleteFiles, /v6/listFiles, /v6/getFileUrl
  *   POST /_fake/reset (API key only), GET /health
@@ -208,7 +209,6 @@ export function startUploadFake(options: UploadFakeOptions = {}) {
           usedKeys.delete(key);
           return send(res, 400, { error });
         };
-        if (!route) return refuse("No route metadata registered for this file");
         const bytes = await multipartFile(req, await readBody(req));
         if (!bytes) return refuse("Expected a multipart body with a `file` field");
         const declaredSize = Number(decodeURIComponent(params.get("x-ut-file-size") ?? "0"));
@@ -238,6 +238,14 @@ export function startUploadFake(options: UploadFakeOptions = {}) {
           ufsUrl: fileUrl(key),
           fileHash: meta.fileHash,
         };
+        // No route registered: a server-side upload (UTApi.uploadFiles), stored with no callback.
+        if (!route)
+          return send(res, 200, {
+            url: file.url,
+            appUrl: file.appUrl,
+            ufsUrl: file.ufsUrl,
+            fileHash: file.fileHash,
+          });
         const result = new Promise<CallbackOutcome>((resolve) => {
           waiting.set(key, resolve);
           setTimeout(() => {

@@ -4,7 +4,8 @@ import { createServer, type Server } from "node:http";
 import type { AddressInfo } from "node:net";
 import { rmSync } from "node:fs";
 import { startUploadFake } from "@/mocks/uploads/server";
-import { LOCAL_UPLOAD_KEYS } from "@/lib/uploads/config";
+import { UTApi, UTFile } from "uploadthing/server";
+import { LOCAL_UPLOAD_KEYS, localUploadToken } from "@/lib/uploads/config";
 import { tinyPdf, tinyPng } from "../support/uploads";
 
 // Its own port and folder, beside the one the global setup starts for the app.
@@ -159,6 +160,21 @@ describe("upload fake: single-use URLs, guarded reset, never in production", () 
     const ok = await fetch(`${BASE}/_fake/reset`, { method: "POST", headers: KEY_HEADER });
     expect(ok.status).toBe(200);
     expect(await stored(key)).toBeNull();
+  });
+
+  it("stores a server-side upload from the SDK's UTApi.uploadFiles, with no callback", async () => {
+    const api = new UTApi({ token: localUploadToken(), ingestUrl: BASE, apiUrl: BASE });
+    const before = callbacks.length;
+    const [a, b] = await api.uploadFiles([
+      new UTFile([new Uint8Array(tinyPng())], "clean.png", { type: "image/png" }),
+      new UTFile([new Uint8Array(tinyPdf())], "doc.pdf", { type: "application/pdf" }),
+    ]);
+    expect(a?.error).toBeNull();
+    expect(b?.error).toBeNull();
+    expect(await stored(a!.data!.key)).toEqual(tinyPng());
+    expect(await stored(b!.data!.key)).toEqual(tinyPdf());
+    expect(a!.data!.ufsUrl).toBe(`${BASE}/f/${a!.data!.key}`);
+    expect(callbacks.length).toBe(before);
   });
 
   it("refuses to start with APP_ENV=production", async () => {

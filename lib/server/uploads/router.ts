@@ -6,6 +6,7 @@ import { z } from "zod";
 import { getCurrentUser } from "../auth/session";
 import { db } from "../db";
 import { fetchStoredFile, UntrustedFileUrlError, utapi } from "./config";
+import { storeCleanCopy, type StoredUpload } from "./clean";
 import { PHOTO_TAGS } from "@/lib/validation/request";
 
 const f = createUploadthing();
@@ -23,12 +24,13 @@ export type UploadResult = { ok: true; attachmentId: number } | { ok: false; err
 
 /**
  * Called when the upload service confirms a file: read its first bytes, refuse a type that
- * does not match the slug (and delete the file, so nothing is half stored), else record it.
+ * does not match the slug (and delete the file, so nothing is half stored), replace it by a
+ * clean re-encoded copy with a thumbnail (./clean.ts), and record that.
  */
 async function recordUpload(
   slug: Slug,
   file: { key: string; name: string; size: number; ufsUrl: string },
-  write: (mime: string) => Promise<number>,
+  write: (stored: StoredUpload) => Promise<number>,
 ): Promise<UploadResult> {
   const head = await fetchStoredFile(file.ufsUrl, 4100).catch((err: unknown) => {
     if (err instanceof UntrustedFileUrlError) return null;
@@ -46,7 +48,9 @@ async function recordUpload(
       error: `“${file.name}” is not a ${slug === "photo" ? "JPEG, PNG or WebP image" : "PDF or an image"} (by its content), so it was not kept.`,
     };
   }
-  return { ok: true, attachmentId: await write(detected.mime) };
+  const clean = await storeCleanCopy(file, detected.mime);
+  if (!clean.ok) return clean;
+  return { ok: true, attachmentId: await write(clean.stored) };
 }
 
 async function signedIn() {
@@ -76,15 +80,13 @@ export const fileRouter = {
       return { userId: user.id, credentialId: input.credentialId };
     })
     .onUploadComplete(({ metadata, file }) =>
-      recordUpload("credentialEvidence", file, (mime) =>
+      recordUpload("credentialEvidence", file, (stored) =>
         db().transaction(async (trx) => {
           const [id] = await trx("attachments").insert({
             owner_id: metadata.userId,
             purpose: "credential_evidence",
-            file_key: file.key,
+            ...storedColumns(stored),
             file_name: file.name.slice(0, 255),
-            mime_type: mime,
-            size_bytes: file.size,
           });
           const old = await trx("credentials")
             .where({ id: metadata.credentialId })
@@ -125,7 +127,7 @@ export const fileRouter = {
       tag: null,
     }))
     .onUploadComplete(({ metadata, file }) =>
-      recordUpload("sketch", file, (mime) => insertProjectFile(metadata, "sketch", file, mime)),
+      recordUpload("sketch", file, (stored) => insertProjectFile(metadata, "sketch", file, stored)),
     ),
   photo: f({ image: { maxFileSize: "16MB", maxFileCount: 1 } })
     .input(
@@ -141,7 +143,7 @@ export const fileRouter = {
       tag: input.tag,
     }))
     .onUploadComplete(({ metadata, file }) =>
-      recordUpload("photo", file, (mime) => insertProjectFile(metadata, "photo", file, mime)),
+      recordUpload("photo", file, (stored) => insertProjectFile(metadata, "photo", file, stored)),
     ),
 } satisfies FileRouter;
 
@@ -177,21 +179,31 @@ async function ownProject(projectId: number, purpose: "sketch" | "photo") {
 async function insertProjectFile(
   meta: { userId: number; projectId: number; caption: string | null; tag: string | null },
   purpose: "sketch" | "photo",
-  file: { key: string; name: string; size: number },
-  mime: string,
+  file: { name: string },
+  stored: StoredUpload,
 ) {
   const [id] = await db()("attachments").insert({
     owner_id: meta.userId,
     project_id: meta.projectId,
     purpose,
-    file_key: file.key,
+    ...storedColumns(stored),
     file_name: file.name.slice(0, 255),
-    mime_type: mime,
-    size_bytes: file.size,
     caption: meta.caption,
     tag: meta.tag,
   });
   return Number(id);
+}
+
+/** The attachment columns for the stored clean copy. */
+function storedColumns(s: StoredUpload) {
+  return {
+    file_key: s.key,
+    thumbnail_key: s.thumbnailKey,
+    mime_type: s.mime,
+    size_bytes: s.size,
+    width_px: s.width,
+    height_px: s.height,
+  };
 }
 
 export type LoopwrightFileRouter = typeof fileRouter;
