@@ -1,5 +1,6 @@
 import type { Metadata, Viewport } from "next";
 import localFont from "next/font/local";
+import { connection } from "next/server";
 import "./globals.css";
 
 // Shipped with the app from the @fontsource-variable/inter npm package: nothing is fetched at run time.
@@ -25,7 +26,10 @@ export const metadata: Metadata = {
 
 export const viewport: Viewport = { width: "device-width", initialScale: 1 };
 
-export default function RootLayout({ children }: { children: React.ReactNode }) {
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  // Every page is rendered per request, so Next.js can put this request's CSP nonce (set in
+  // proxy.ts) on its scripts; a prerendered page would carry none and never hydrate.
+  await connection();
   return (
     <html lang="en-GB" className={inter.variable}>
       <body className="min-h-screen font-sans">{children}</body>

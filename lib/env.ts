@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { decodeUploadToken, LOCAL_UPLOAD_KEYS } from "./uploads/config";
 
 /**
  * Environment, validated once. Every variable has a default that points at the local
@@ -38,9 +39,24 @@ const baseSchema = z.object({
   STRIPE_API_HOST: z.string().default("127.0.0.1"),
   STRIPE_API_PORT: port.default(12111),
   STRIPE_API_PROTOCOL: z.enum(["http", "https"]).default("http"),
-  UPLOADTHING_TOKEN: z.string().optional(),
+  UPLOADTHING_TOKEN: z
+    .string()
+    .refine(
+      (t) => {
+        try {
+          decodeUploadToken(t);
+          return true;
+        } catch {
+          return false;
+        }
+      },
+      { message: "must be the upload service's base64 JSON token with apiKey and appId" },
+    )
+    .optional(),
   UPLOADTHING_INGEST_URL: z.url().default("http://127.0.0.1:2590"),
   UPLOADTHING_API_URL: z.url().optional(),
+  /** Where stored files are read (`<this>/f/<key>`); the ingest URL when unset (the local fake). */
+  UPLOADTHING_FILES_URL: z.url().optional(),
 });
 
 export type Env = z.infer<typeof baseSchema>;
@@ -50,6 +66,8 @@ const productionSecrets = [
   "STRIPE_SECRET_KEY",
   "STRIPE_WEBHOOK_SECRET",
   "DB_PASSWORD",
+  // Without it the SDK would sign and verify upload callbacks with the public local key.
+  "UPLOADTHING_TOKEN",
 ] as const;
 
 export class EnvError extends Error {}
@@ -68,6 +86,11 @@ export function parseEnv(source: Record<string, string | undefined> = process.en
     const missing = productionSecrets.filter((name) => !cleaned[name]);
     if (missing.length > 0) {
       throw new EnvError(`Missing environment variables for production: ${missing.join(", ")}`);
+    }
+    if (decodeUploadToken(result.data.UPLOADTHING_TOKEN!).apiKey === LOCAL_UPLOAD_KEYS.apiKey) {
+      throw new EnvError(
+        "UPLOADTHING_TOKEN: the local development key is public and cannot be used in production",
+      );
     }
   }
   return result.data;

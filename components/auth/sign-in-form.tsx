@@ -5,6 +5,7 @@ import { useForm } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
+import { safeCallbackPath } from "@/lib/safe-redirect";
 import { signInSchema, type SignInInput } from "@/lib/validation/auth";
 import { Button } from "@/components/ui/button";
 import { TextField } from "./text-field";
@@ -26,7 +27,8 @@ export function SignInForm({ callbackUrl }: { callbackUrl: string }) {
     setError(null);
     const r = await signIn("credentials", { ...values, redirect: false });
     if (r?.ok && !r.error) {
-      router.push(callbackUrl);
+      // The page sends a checked path; check again here, against where the browser really is.
+      router.push(safeCallbackPath(callbackUrl, window.location.origin));
       router.refresh();
       return;
     }

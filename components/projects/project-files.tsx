@@ -92,7 +92,7 @@ export function ProjectFiles({ projectId, files }: { projectId: number; files: P
     f.mimeType.startsWith("image/") ? (
       // eslint-disable-next-line @next/next/no-img-element -- private files come from our access-checked route, not the image optimiser
       <img
-        src={`/api/files/${f.id}`}
+        src={`/api/files/${f.id}?variant=thumbnail`}
         alt={f.caption ?? f.fileName}
         className="h-32 w-full rounded-lg object-cover"
       />

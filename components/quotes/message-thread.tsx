@@ -2,7 +2,7 @@
 
 import { useState } from "react";
 import { useMutation, useQuery, useQueryClient } from "@tanstack/react-query";
-import ReactMarkdown from "react-markdown";
+import { Markdown } from "@/components/ui/markdown";
 import type { Message } from "@/lib/types/messages";
 import { Button } from "@/components/ui/button";
 import { inputClass } from "@/components/ui/field";
@@ -66,7 +66,7 @@ export function MessageThread({
               {m.senderName} · {m.createdAt.slice(0, 16)}
             </p>
             <div className="prose prose-sm">
-              <ReactMarkdown>{m.bodyMd}</ReactMarkdown>
+              <Markdown>{m.bodyMd}</Markdown>
             </div>
           </li>
         ))}

@@ -2,7 +2,7 @@
 
 import { useState } from "react";
 import Link from "next/link";
-import ReactMarkdown from "react-markdown";
+import { Markdown } from "@/components/ui/markdown";
 import {
   createColumnHelper,
   flexRender,
@@ -83,7 +83,7 @@ export function QuoteTable({
       enableSorting: false,
       cell: (c) => (
         <div className="prose prose-sm max-w-md">
-          <ReactMarkdown>{c.getValue()}</ReactMarkdown>
+          <Markdown>{c.getValue()}</Markdown>
         </div>
       ),
     }),

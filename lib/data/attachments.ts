@@ -13,6 +13,22 @@ export interface StoredFile {
   /** The stored file's real size, measured by the caller from its bytes. */
   sizeBytes: number;
   mimeType: string;
+  /** The thumbnail the pages show, for images (re-encoded on ingest). */
+  thumbnailKey?: string | null;
+  widthPx?: number | null;
+  heightPx?: number | null;
+}
+
+function fileColumns(file: StoredFile) {
+  return {
+    file_key: file.key,
+    file_name: file.name.slice(0, 255),
+    mime_type: file.mimeType,
+    size_bytes: file.sizeBytes,
+    thumbnail_key: file.thumbnailKey ?? null,
+    width_px: file.widthPx ?? null,
+    height_px: file.heightPx ?? null,
+  };
 }
 
 const tooLarge = (bytes: number) =>
@@ -55,10 +71,7 @@ export async function recordCredentialEvidence(
     const [id] = await trx("attachments").insert({
       owner_id: actor.id,
       purpose: "credential_evidence",
-      file_key: file.key,
-      file_name: file.name.slice(0, 255),
-      mime_type: file.mimeType,
-      size_bytes: file.sizeBytes,
+      ...fileColumns(file),
     });
     await trx("credentials")
       .where({ id: credentialId })
@@ -131,10 +144,7 @@ export async function recordProjectFile(
       owner_id: actor.id,
       project_id: projectId,
       purpose,
-      file_key: file.key,
-      file_name: file.name.slice(0, 255),
-      mime_type: file.mimeType,
-      size_bytes: file.sizeBytes,
+      ...fileColumns(file),
       caption: meta.caption,
       tag: meta.tag,
     });

@@ -9,6 +9,8 @@ export interface AttachmentRow {
   projectId: number | null;
   purpose: "sketch" | "photo" | "credential_evidence";
   fileKey: string;
+  /** A small WebP of an image (made on ingest), or null. */
+  thumbnailKey: string | null;
   fileName: string;
   mimeType: string;
   sizeBytes: number;
@@ -33,6 +35,7 @@ export async function getReadableAttachment(
       "project_id",
       "purpose",
       "file_key",
+      "thumbnail_key",
       "file_name",
       "mime_type",
       "size_bytes",
@@ -44,6 +47,7 @@ export async function getReadableAttachment(
     projectId: r.project_id === null ? null : Number(r.project_id),
     purpose: r.purpose,
     fileKey: r.file_key,
+    thumbnailKey: r.thumbnail_key ?? null,
     fileName: r.file_name,
     mimeType: r.mime_type,
     sizeBytes: r.size_bytes,

@@ -31,3 +31,29 @@ export const MAX_FILE_BYTES = {
   sketch: 16 * 1024 * 1024,
   photo: 16 * 1024 * 1024,
 } as const;
+/** A file key as the upload service makes them (and as the fake accepts them). */
+const FILE_KEY = /^[A-Za-z0-9_-]{1,200}$/;
+
+/**
+ * The URL to read a stored file from, or null when `url` is not a file on the configured file
+ * host (`filesBaseUrl`, the ingest URL locally): same origin, and a path of the form
+ * `/f/<key>`. The app sends its API key with the request, so any other host — one named in
+ * a forged callback, say — is never contacted.
+ */
+export function trustedStoredFileUrl(url: string, filesBaseUrl: string): URL | null {
+  let target: URL;
+  let base: URL;
+  try {
+    target = new URL(url);
+    base = new URL(filesBaseUrl);
+  } catch {
+    return null;
+  }
+  if (target.origin !== base.origin || target.username || target.password) return null;
+  const prefix = base.pathname.replace(/\/+$/, "");
+  const rest = target.pathname.startsWith(`${prefix}/f/`)
+    ? target.pathname.slice(prefix.length + 3)
+    : null;
+  if (!rest || !FILE_KEY.test(rest)) return null;
+  return target;
+}

@@ -1,4 +1,4 @@
-import { z } from "zod";
+import { z } from "@/lib/zod";
 import { REGION_IDS } from "@/lib/regions";
 
 const optionalNumber = (schema: z.ZodNumber) =>

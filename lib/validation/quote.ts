@@ -1,4 +1,4 @@
-import { z } from "zod";
+import { z } from "@/lib/zod";
 
 export const quoteSchema = z.object({
   pricePounds: z.coerce

@@ -1,4 +1,4 @@
-import { z } from "zod";
+import { z } from "@/lib/zod";
 
 const pounds = z.coerce
   .number({ error: "Enter an amount" })

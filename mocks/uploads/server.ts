@@ -6,9 +6,14 @@
  * for the app's /callback-result, and answers the PUT with the server data.
  *
  *   POST /route-metadata, PUT|HEAD /:key?signed, POST /callback-result
+ *   (a PUT for a key with no route registered is a server-side UTApi.uploadFiles: stored, no callback)
  *   GET  /f/:key        the file (needs the API key header, or a signed URL)
  *   POST /v6/deleteFiles, /v6/listFiles, /v6/getFileUrl
- *   POST /_fake/reset, GET /health
+ *   POST /_fake/reset (API key only), GET /health
+ *
+ * A presigned URL is single-use: once a PUT to it is under way or done, another PUT to the
+ * same file key gets 403 at once, so a replay can neither overwrite nor remove the accepted
+ * file. The fake refuses to start when APP_ENV=production.
  */
 import { createServer, type IncomingMessage, type ServerResponse } from "node:http";
 import { createHash, createHmac, timingSafeEqual } from "node:crypto";
@@ -39,6 +44,8 @@ export interface UploadFakeOptions {
   appId?: string;
   /** How long a PUT waits for the app's callback result before giving up. */
   callbackTimeoutMs?: number;
+  /** The environment it would run in (process.env.APP_ENV by default); "production" is refused. */
+  appEnv?: string;
 }
 
 const CORS = {
@@ -79,6 +86,13 @@ async function multipartFile(req: IncomingMessage, body: Buffer): Promise<Buffer
 }
 
 export function startUploadFake(options: UploadFakeOptions = {}) {
+  if ((options.appEnv ?? process.env.APP_ENV) === "production") {
+    return Promise.reject(
+      new Error(
+        "The upload fake is for development and tests: it does not run with APP_ENV=production.",
+      ),
+    );
+  }
   const port = options.port ?? Number(process.env.UPLOAD_FAKE_PORT ?? 2590);
   const dir = options.dir ?? join(process.cwd(), ".data", "uploads");
   const apiKey = options.apiKey ?? LOCAL_UPLOAD_KEYS.apiKey;
@@ -88,6 +102,8 @@ export function startUploadFake(options: UploadFakeOptions = {}) {
   mkdirSync(dir, { recursive: true });
 
   const routes = new Map<string, RouteRegistration>();
+  /** File keys whose presigned URL has been used (a PUT under way or stored). */
+  const usedKeys = new Set<string>();
   type CallbackOutcome = { data: unknown } | { failed: string };
   const waiting = new Map<string, (outcome: CallbackOutcome) => void>();
   const metaPath = (key: string) => join(dir, `${key}.json`);
@@ -133,8 +149,10 @@ export function startUploadFake(options: UploadFakeOptions = {}) {
       }
       if (path === "/health") return send(res, 200, { ok: true });
       if (path === "/_fake/reset" && req.method === "POST") {
+        if (!hasApiKey(req)) return send(res, 401, { error: "Invalid API key" });
         for (const f of readdirSync(dir)) rmSync(join(dir, f), { force: true });
         routes.clear();
+        usedKeys.clear();
         return send(res, 200, { ok: true });
       }
       if (path === "/route-metadata" && req.method === "POST") {
@@ -179,14 +197,22 @@ export function startUploadFake(options: UploadFakeOptions = {}) {
           res.writeHead(200, { ...CORS, "x-ut-range-start": "0" });
           return res.end();
         }
+        // Single use: claim the key before reading the body, so a parallel replay is refused too.
+        if (usedKeys.has(key) || existsSync(metaPath(key))) {
+          req.resume();
+          return send(res, 403, { error: "This upload URL has already been used" });
+        }
+        usedKeys.add(key);
         const route = routes.get(key);
-        if (!route) return send(res, 400, { error: "No route metadata registered for this file" });
+        // Refusals before anything is stored give the URL back, so the browser may retry.
+        const refuse = (error: string) => {
+          usedKeys.delete(key);
+          return send(res, 400, { error });
+        };
         const bytes = await multipartFile(req, await readBody(req));
-        if (!bytes)
-          return send(res, 400, { error: "Expected a multipart body with a `file` field" });
+        if (!bytes) return refuse("Expected a multipart body with a `file` field");
         const declaredSize = Number(decodeURIComponent(params.get("x-ut-file-size") ?? "0"));
-        if (declaredSize && bytes.length > declaredSize)
-          return send(res, 400, { error: "File larger than declared" });
+        if (declaredSize && bytes.length > declaredSize) return refuse("File larger than declared");
         const meta: StoredMeta = {
           key,
           name: decodeURIComponent(params.get("x-ut-file-name") ?? key),
@@ -212,6 +238,14 @@ export function startUploadFake(options: UploadFakeOptions = {}) {
           ufsUrl: fileUrl(key),
           fileHash: meta.fileHash,
         };
+        // No route registered: a server-side upload (UTApi.uploadFiles), stored with no callback.
+        if (!route)
+          return send(res, 200, {
+            url: file.url,
+            appUrl: file.appUrl,
+            ufsUrl: file.ufsUrl,
+            fileHash: file.fileHash,
+          });
         const result = new Promise<CallbackOutcome>((resolve) => {
           waiting.set(key, resolve);
           setTimeout(() => {

@@ -21,7 +21,10 @@ describe("credential evidence through the upload SDK's route handler and the fak
     knex = testKnex();
     await truncateAll(knex);
     await seedDemo(knex);
-    await fetch(`${uploadUrl}/_fake/reset`, { method: "POST" });
+    await fetch(`${uploadUrl}/_fake/reset`, {
+      method: "POST",
+      headers: { "x-uploadthing-api-key": LOCAL_UPLOAD_KEYS.apiKey },
+    });
     [sol, ines, home, admin] = (
       await Promise.all([
         signInHttp(baseUrl, DEMO_USERS.reviewers[0].email, DEMO_PASSWORD),

@@ -6,9 +6,18 @@ export const tinyPdf = () =>
   Buffer.from(
     "%PDF-1.4\n1 0 obj<</Type/Catalog/Pages 2 0 R>>endobj\n2 0 obj<</Type/Pages/Kids[]/Count 0>>endobj\ntrailer<</Root 1 0 R>>\n%%EOF\n",
   );
-/** A PNG signature plus a minimal IHDR chunk: enough for content sniffing. */
+/** A whole 2 × 2 PNG (made with sharp): it sniffs as PNG and decodes, so it survives re-encoding. */
 export const tinyPng = () =>
-  Buffer.from("89504e470d0a1a0a0000000d4948445200000001000000010806000000", "hex");
+  Buffer.from(
+    "89504e470d0a1a0a0000000d4948445200000002000000020802000000fdd49a730000000970485973000003e8000003e801b57b526b0000001249444154089963705955eeb2aa9c01420100264e05957f0bbb540000000049454e44ae426082",
+    "hex",
+  );
+/** The PNG signature and header chunk, then a script: sniffs as PNG, does not decode. */
+export const pngPolyglot = () =>
+  Buffer.concat([
+    Buffer.from("89504e470d0a1a0a0000000d4948445200000001000000010806000000", "hex"),
+    Buffer.from("<script>alert(document.domain)</script>"),
+  ]);
 /** The first bytes of a Linux executable. */
 export const elfBytes = () =>
   Buffer.concat([Buffer.from([0x7f, 0x45, 0x4c, 0x46, 2, 1, 1, 0]), Buffer.alloc(120)]);

@@ -1,5 +1,18 @@
 import { describe, expect, it } from "vitest";
 import { EnvError, parseEnv } from "@/lib/env";
+import { localUploadToken } from "@/lib/uploads/config";
+
+/** Every production secret set, so one case can leave out or change a single one. */
+const production = {
+  APP_ENV: "production",
+  NEXTAUTH_SECRET: "a-long-production-secret-value",
+  STRIPE_SECRET_KEY: "sk_live_example",
+  STRIPE_WEBHOOK_SECRET: "whsec_example",
+  DB_PASSWORD: "db-password",
+  UPLOADTHING_TOKEN: Buffer.from(
+    JSON.stringify({ apiKey: "sk_live_uploads_example", appId: "exampleapp", regions: ["x"] }),
+  ).toString("base64"),
+};
 
 describe("environment validation", () => {
   it("defaults to the local database and fakes", () => {
@@ -16,5 +29,32 @@ describe("environment validation", () => {
 
   it("requires the secrets in production", () => {
     expect(() => parseEnv({ APP_ENV: "production" })).toThrow(/NEXTAUTH_SECRET/);
+  });
+
+  it("starts in production with every secret set", () => {
+    expect(parseEnv(production).APP_ENV).toBe("production");
+  });
+
+  it("requires the upload token in production, so callbacks are never signed with the public local key", () => {
+    const { UPLOADTHING_TOKEN: _omit, ...withoutToken } = production;
+    expect(() => parseEnv(withoutToken)).toThrow(/Missing .*UPLOADTHING_TOKEN/);
+    expect(() => parseEnv({ ...production, UPLOADTHING_TOKEN: "" })).toThrow(/UPLOADTHING_TOKEN/);
+  });
+
+  it("refuses the local development upload token in production", () => {
+    expect(() => parseEnv({ ...production, UPLOADTHING_TOKEN: localUploadToken() })).toThrow(
+      /UPLOADTHING_TOKEN: the local development key is public/,
+    );
+  });
+
+  it("refuses an upload token that is not the service's base64 JSON", () => {
+    expect(() => parseEnv({ UPLOADTHING_TOKEN: "not-a-token" })).toThrow(/UPLOADTHING_TOKEN/);
+  });
+
+  it("lets development run on the local upload token", () => {
+    expect(parseEnv({}).UPLOADTHING_TOKEN).toBeUndefined();
+    expect(parseEnv({ UPLOADTHING_TOKEN: localUploadToken() }).UPLOADTHING_TOKEN).toBe(
+      localUploadToken(),
+    );
   });
 });

@@ -2,6 +2,8 @@ import type { Metadata } from "next";
 import Link from "next/link";
 import { AuthCard } from "@/components/auth/auth-card";
 import { SignInForm } from "@/components/auth/sign-in-form";
+import { env } from "@/lib/env";
+import { safeCallbackPath } from "@/lib/safe-redirect";
 
 export const metadata: Metadata = { title: "Sign in" };
 
@@ -12,10 +14,7 @@ export default async function SignInPage({
 }) {
   const { callbackUrl } = await searchParams;
   // Only paths on this site: never send someone to another origin after sign-in.
-  const safe =
-    callbackUrl && callbackUrl.startsWith("/") && !callbackUrl.startsWith("//")
-      ? callbackUrl
-      : "/dashboard";
+  const safe = safeCallbackPath(callbackUrl, env().APP_URL);
   return (
     <AuthCard
       title="Sign in"

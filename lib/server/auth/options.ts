@@ -3,6 +3,7 @@ import type { NextAuthOptions } from "next-auth";
 import CredentialsProvider from "next-auth/providers/credentials";
 import { env } from "@/lib/env";
 import { signInSchema } from "@/lib/validation/auth";
+import { safeCallbackPath } from "@/lib/safe-redirect";
 import { db } from "../db";
 import { authenticate } from "@/lib/data/accounts";
 import type { Role } from "@/lib/data/actor";
@@ -40,6 +41,10 @@ export function authOptions(): NextAuthOptions {
       }),
     ],
     callbacks: {
+      // Only places on this site, however the callbackUrl is spelled (see lib/safe-redirect.ts).
+      redirect({ url, baseUrl }) {
+        return `${new URL(baseUrl).origin}${safeCallbackPath(url, baseUrl, "/")}`;
+      },
       jwt({ token, user }) {
         if (user) {
           token.uid = Number(user.id);

@@ -16,7 +16,9 @@ import type { Actor } from "@/lib/data/actor";
 import { PHOTO_TAGS } from "@/lib/validation/request";
 import { getCurrentUser } from "../auth/session";
 import { db } from "../db";
-import { fetchStoredFile, utapi } from "./config";
+import { fetchStoredFile, UntrustedFileUrlError, utapi } from "./config";
+import { storeCleanCopy } from "./clean";
+import { MAX_FILE_BYTES } from "@/lib/uploads/config";
 
 const f = createUploadthing();
 
@@ -32,37 +34,55 @@ type Slug = keyof typeof ALLOWED_TYPES;
 export type UploadResult = { ok: true; attachmentId: number } | { ok: false; error: string };
 
 /**
- * Called when the upload service confirms a file: read its bytes, refuse a type that does not
- * match the slug, then record it through lib/data (which checks the limits again against the
- * stored size). Any refusal deletes the stored file, so nothing is half kept.
+ * Called when the upload service confirms a file: read its bytes (only from the configured file
+ * host), refuse a type that does not match the slug or a file over the size limit, replace it by
+ * a clean re-encoded copy with a thumbnail (./clean.ts), then record that through lib/data, which
+ * checks the per-project limits again with the project row locked. Any refusal deletes what was
+ * stored, so nothing is half kept.
  */
 async function recordUpload(
   slug: Slug,
   file: { key: string; name: string; size: number; ufsUrl: string },
   write: (stored: StoredFile) => Promise<number>,
 ): Promise<UploadResult> {
-  const refuse = async (error: string): Promise<UploadResult> => {
-    await utapi().deleteFiles(file.key);
+  const res = await fetchStoredFile(file.ufsUrl).catch((err: unknown) => {
+    if (err instanceof UntrustedFileUrlError) return null;
+    throw err;
+  });
+  // A file on another host is not ours to delete: refuse it and touch nothing.
+  if (!res) return { ok: false, error: "The upload service reported a file we cannot read." };
+  const refuse = async (error: string, keys: string[] = [file.key]): Promise<UploadResult> => {
+    await utapi().deleteFiles(keys);
     return { ok: false, error };
   };
-  const res = await fetchStoredFile(file.ufsUrl);
   const bytes = res.ok ? new Uint8Array(await res.arrayBuffer()) : new Uint8Array();
   const detected = bytes.length ? await fileTypeFromBuffer(bytes) : undefined;
   if (!detected || !(ALLOWED_TYPES[slug] as readonly string[]).includes(detected.mime))
     return refuse(
       `“${file.name}” is not a ${slug === "photo" ? "JPEG, PNG or WebP image" : "PDF or an image"} (by its content), so it was not kept.`,
     );
+  if (bytes.length > MAX_FILE_BYTES[slug])
+    return refuse(
+      `“${file.name}” is larger than ${Math.round(MAX_FILE_BYTES[slug] / 1024 / 1024)} MB, so it was not kept.`,
+    );
+  const clean = await storeCleanCopy(file, detected.mime);
+  if (!clean.ok) return clean;
+  const c = clean.stored;
+  const keys = [c.key, ...(c.thumbnailKey ? [c.thumbnailKey] : [])];
   try {
     const id = await write({
-      key: file.key,
+      key: c.key,
       name: file.name,
-      sizeBytes: bytes.length,
-      mimeType: detected.mime,
+      sizeBytes: c.size,
+      mimeType: c.mime,
+      thumbnailKey: c.thumbnailKey,
+      widthPx: c.width,
+      heightPx: c.height,
     });
     return { ok: true, attachmentId: id };
   } catch (err) {
-    if (err instanceof HttpError) return refuse(err.message);
-    await utapi().deleteFiles(file.key);
+    if (err instanceof HttpError) return refuse(err.message, keys);
+    await utapi().deleteFiles(keys);
     throw err;
   }
 }
