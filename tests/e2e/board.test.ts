@@ -124,11 +124,17 @@ describe("the request board in Chromium", () => {
     // The comparison table sorts by price on a click.
     await hp.getByRole("button", { name: /^Price/ }).click();
     expect(await hp.locator('th[aria-sort="descending"]').count()).toBe(1);
-    await hp.getByRole("button", { name: /^Accept the quote from/ }).click();
-    await hp.locator('[data-quote="accepted"]').waitFor();
-    const job = await knex("jobs").where({ request_id: request.id }).first("state", "amount_minor");
-    expect(job).toMatchObject({ state: "awaiting_payment", amount_minor: 12000 });
     await hp.screenshot({ path: "tests/e2e/screenshots/quotes.png", fullPage: true });
+    await hp.getByRole("button", { name: /^Accept the quote from/ }).click();
+    // Accepting leads straight to the job page, where paying into held funds is the next step.
+    await hp.waitForURL(/\/jobs\/\d+$/);
+    await hp.locator('[data-job-state="awaiting_payment"]').waitFor();
+    await hp.getByRole("button", { name: /^Pay / }).waitFor();
+    const job = await knex("jobs")
+      .where({ request_id: request.id })
+      .first("id", "state", "amount_minor");
+    expect(job).toMatchObject({ state: "awaiting_payment", amount_minor: 12000 });
+    expect(hp.url()).toMatch(new RegExp(`/jobs/${job.id}$`));
     await reviewer.close();
     await homeowner.close();
   });

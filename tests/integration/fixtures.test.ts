@@ -108,9 +108,11 @@ describe("fixture builders make what they say, against the real MariaDB", () => 
 
   it("makes requests that show on the board while open, and not once expired or awarded", async () => {
     const reviewer = await makeReviewer(knex);
-    const project = await makeProject(knex, await makeHomeowner(knex));
+    const owner = await makeHomeowner(knex);
+    const project = await makeProject(knex, owner);
     const open = await makeRequest(knex, project);
-    const visit = await makeRequest(knex, project, {
+    // A project has one open request at most: the site visit is on a second project.
+    const visit = await makeRequest(knex, await makeProject(knex, owner), {
       kind: "site_visit",
       siteLat: 50.72,
       siteLng: -3.53,

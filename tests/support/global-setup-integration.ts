@@ -6,7 +6,7 @@
  * No build and no app server.
  */
 import type { TestProject } from "vitest/node";
-import { acquireMailFake, acquirePaymentsFake, TEST_PORTS } from "./fakes";
+import { acquireMailFake, acquirePaymentsFake, acquireUploadFake, TEST_PORTS } from "./fakes";
 
 export default async function setup(project: TestProject) {
   const leaveMail = await acquireMailFake();
@@ -14,11 +14,18 @@ export default async function setup(project: TestProject) {
     await leaveMail();
     throw e;
   });
+  const leaveUploads = await acquireUploadFake().catch(async (e) => {
+    await leaveMail();
+    await leavePayments();
+    throw e;
+  });
   project.provide("mailUrl", `http://127.0.0.1:${TEST_PORTS.mailHttp}`);
   project.provide("smtpPort", TEST_PORTS.mailSmtp);
   project.provide("paymentsUrl", `http://127.0.0.1:${TEST_PORTS.payments}`);
+  project.provide("uploadUrl", `http://127.0.0.1:${TEST_PORTS.upload}`);
   return async () => {
     await leaveMail();
     await leavePayments();
+    await leaveUploads();
   };
 }
