@@ -6,6 +6,7 @@ import * as operations from "./20261201_0004_operations";
 import * as requestSnapshots from "./20261202_0010_request_snapshots";
 import * as payments from "./20261202_0011_payments";
 import * as thumbnails from "./20261202_0012_thumbnails";
+import * as review from "./20261202_0030_review";
 
 /**
  * Every migration, in order. Listed here rather than read from the folder so the same source
@@ -20,6 +21,7 @@ const MIGRATIONS: Record<string, Knex.Migration> = {
   "20261202_0010_request_snapshots.ts": requestSnapshots,
   "20261202_0011_payments.ts": payments,
   "20261202_0012_thumbnails.ts": thumbnails,
+  "20261202_0030_review.ts": review,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {
