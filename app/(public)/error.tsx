@@ -1,25 +1,12 @@
 "use client";
 
-import { ProblemPage } from "@/components/ui/problem-page";
-import { Button } from "@/components/ui/button";
+import { SegmentError } from "@/components/ui/segment-error";
 
-/** A failure we did not expect: nothing the person typed was sent twice; they can try again. */
 export default function PublicError({
   reset,
 }: {
   error: Error & { digest?: string };
   reset: () => void;
 }) {
-  return (
-    <ProblemPage
-      title="Something went wrong on our side"
-      message="Nothing you saved is lost. Try again; if it keeps happening, come back in a few minutes."
-      homeHref="/"
-      homeLabel="Go to the home page"
-    >
-      <Button type="button" className="mt-4" onClick={reset}>
-        Try again
-      </Button>
-    </ProblemPage>
-  );
+  return <SegmentError reset={reset} homeHref="/" homeLabel="Go to the home page" />;
 }

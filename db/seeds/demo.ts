@@ -10,7 +10,7 @@ import { runLoopCheck } from "../../lib/calc/loop-check";
 import { systemSchema, type SystemInput } from "../../lib/validation/system";
 import { CATALOGUE_VERSION } from "../../lib/checklist/catalogue";
 import { CREDENTIAL_KINDS } from "../../lib/credentials";
-import { splitFee } from "../../lib/jobs";
+import { JOB_STATES, splitFee } from "../../lib/jobs";
 
 export const DEMO_PASSWORD = "demo-loop-2026";
 
@@ -53,18 +53,6 @@ export const DEMO_USERS = {
     },
   ],
 } as const;
-
-const JOB_STATES = [
-  "awaiting_payment",
-  "funded",
-  "in_review",
-  "delivered",
-  "disputed",
-  "released",
-  "partially_refunded",
-  "refunded",
-  "cancelled",
-] as const;
 
 /** Variations of the example system, so the board has a mix of kinds, regions and collectors. */
 function variant(i: number, region: string): SystemInput {
