@@ -138,4 +138,57 @@ describe("the request board in Chromium", () => {
     await reviewer.close();
     await homeowner.close();
   });
+
+  it("keeps only site visits within the distance typed on the board page, nearest first", async () => {
+    // Invented geography: the reviewer's centre and three open site visits 15, 70 and 250 km
+    // north of it (1° of latitude ≈ 111.2 km).
+    const sol = await knex("users").where({ email: DEMO_USERS.reviewers[0].email }).first("id");
+    await knex("reviewer_profiles")
+      .where({ user_id: sol.id })
+      .update({ centre_lat: 51.0, centre_lng: -2.0 });
+    // Runs last: every request still open becomes a site visit, three of them with a point.
+    await knex("requests")
+      .where({ status: "open" })
+      .update({ kind: "site_visit", window_start: "2030-05-01", window_end: "2030-06-30" });
+    const visits = await knex("requests")
+      .where({ status: "open" })
+      .orderBy("id")
+      .limit(3)
+      .pluck("id");
+    expect(visits).toHaveLength(3);
+    const distances = [250, 15, 70];
+    for (const [i, id] of visits.entries()) {
+      await knex("requests")
+        .where({ id })
+        .update({ site_lat: 51.0 + distances[i]! / 111.2, site_lng: -2.0 });
+    }
+    // Any other open site visit has no point and so cannot be "within" a distance.
+    await knex("requests")
+      .where({ status: "open", kind: "site_visit" })
+      .whereNotIn("id", visits)
+      .update({ site_lat: null, site_lng: null });
+
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    context.setDefaultTimeout(15_000);
+    const page = await context.newPage();
+    await page.goto(`${baseUrl}/sign-in?callbackUrl=${encodeURIComponent("/board")}`);
+    await page.getByLabel("E-mail").fill(DEMO_USERS.reviewers[0].email);
+    await page.getByLabel("Password").fill(DEMO_PASSWORD);
+    await page.getByRole("button", { name: "Sign in" }).click();
+    await page.waitForURL("**/board");
+    await page.locator("[data-board-item]").first().waitFor();
+    await page.getByLabel("Site visits within (km)").fill("100");
+    await page.getByLabel("Sort").selectOption("distance");
+    await page.getByRole("button", { name: "Show requests" }).click();
+    await page.waitForURL(/withinKm=100/);
+    await page.waitForFunction(() => document.querySelectorAll("[data-board-item]").length === 2);
+    const shown = await page
+      .locator("[data-board-item]")
+      .evaluateAll((els) => els.map((e) => Number(e.getAttribute("data-board-item"))));
+    expect(shown).toEqual([visits[1], visits[2]]);
+    const texts = await page.locator("[data-board-item]").allTextContents();
+    expect(texts[0]).toMatch(/15 km away/);
+    expect(texts[1]).toMatch(/70 km away/);
+    await context.close();
+  });
 });
