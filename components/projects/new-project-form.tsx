@@ -1,6 +1,7 @@
 "use client";
 
 import { useActionState } from "react";
+import { useFocusFirstError } from "@/components/ui/use-focus-first-error";
 import { Button } from "@/components/ui/button";
 import { FormField } from "@/components/ui/form-field";
 import { startProject, type ProjectActionState } from "./actions";
@@ -9,8 +10,9 @@ export function NewProjectForm() {
   const [state, action, pending] = useActionState<ProjectActionState, FormData>(startProject, {
     ok: false,
   });
+  const formRef = useFocusFirstError(state);
   return (
-    <form action={action} className="space-y-3" aria-label="New project">
+    <form ref={formRef} action={action} className="space-y-3" aria-label="New project">
       <FormField
         name="title"
         label="Project name"

@@ -1,6 +1,7 @@
 "use client";
 
 import { useActionState, useState } from "react";
+import { useFocusFirstError } from "@/components/ui/use-focus-first-error";
 import { Button } from "@/components/ui/button";
 import { Field, inputClass } from "@/components/ui/field";
 import { FormField } from "@/components/ui/form-field";
@@ -17,6 +18,7 @@ export function RequestForm({ projectId, existing }: RequestFormProps) {
     existing ? editRequest.bind(null, projectId, existing.id) : postRequest.bind(null, projectId),
     { ok: false },
   );
+  const formRef = useFocusFirstError(state);
   const v = state.ok ? existing?.values : (state.values ?? existing?.values);
   const [kind, setKind] = useState(v?.kind ?? "remote_check");
   const e = state.fieldErrors;
@@ -27,7 +29,7 @@ export function RequestForm({ projectId, existing }: RequestFormProps) {
       </p>
     );
   return (
-    <form action={action} className="space-y-3" aria-label="Ask for a review">
+    <form ref={formRef} action={action} className="space-y-3" aria-label="Ask for a review">
       <fieldset>
         <legend className="text-sm font-semibold">Kind of review</legend>
         <div className="mt-2 flex flex-wrap gap-4">

@@ -29,8 +29,13 @@ export function StepForm({ projectId, step, defaultValues }: StepFormProps) {
     setMessage(null);
     const r = await saveStep(projectId, step, values[step]);
     if (!r.ok) {
-      for (const [path, messages] of Object.entries(r.fieldErrors ?? {})) {
-        form.setError(path as Parameters<typeof form.setError>[0], { message: messages[0] });
+      // The first field in error takes the keyboard focus; its message is tied to it.
+      for (const [i, [path, messages]] of Object.entries(r.fieldErrors ?? {}).entries()) {
+        form.setError(
+          path as Parameters<typeof form.setError>[0],
+          { message: messages[0] },
+          { shouldFocus: i === 0 },
+        );
       }
       setMessage(r.message ?? "Some values need attention.");
       return;

@@ -1,6 +1,7 @@
 "use client";
 
 import { useActionState } from "react";
+import { useFocusFirstError } from "@/components/ui/use-focus-first-error";
 import { Button } from "@/components/ui/button";
 import { Field, inputClass } from "@/components/ui/field";
 import { FormField } from "@/components/ui/form-field";
@@ -22,10 +23,11 @@ export function QuoteForm({ requestId, siteVisit, current }: QuoteFormProps) {
     sendQuote.bind(null, requestId),
     { ok: false },
   );
+  const formRef = useFocusFirstError(state);
   const v = state.values;
   const e = state.fieldErrors;
   return (
-    <form action={action} className="space-y-3" aria-label="Your quote">
+    <form ref={formRef} action={action} className="space-y-3" aria-label="Your quote">
       <div className="grid gap-x-4 sm:grid-cols-2">
         <FormField
           name="pricePounds"

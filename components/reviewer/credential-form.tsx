@@ -1,6 +1,7 @@
 "use client";
 
 import { useActionState } from "react";
+import { useFocusFirstError } from "@/components/ui/use-focus-first-error";
 import { CREDENTIAL_KINDS, CREDENTIAL_NAMES } from "@/lib/credentials";
 import { Button } from "@/components/ui/button";
 import { Field, inputClass } from "@/components/ui/field";
@@ -11,10 +12,12 @@ export function CredentialForm() {
   const [state, action, pending] = useActionState<FormState, FormData>(submitCredential, {
     ok: false,
   });
+  const formRef = useFocusFirstError(state);
   const e = state.fieldErrors;
   const v = state.ok ? undefined : state.values;
   return (
     <form
+      ref={formRef}
       action={action}
       key={state.ok ? "done" : "editing"}
       className="space-y-3"
@@ -27,6 +30,7 @@ export function CredentialForm() {
             name="kind"
             className={inputClass}
             defaultValue={String(v?.kind ?? "")}
+            aria-invalid={e?.kind ? true : undefined}
             aria-describedby="f-kind-error"
           >
             <option value="">Choose…</option>

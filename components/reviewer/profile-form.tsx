@@ -1,6 +1,7 @@
 "use client";
 
 import { useActionState } from "react";
+import { useFocusFirstError } from "@/components/ui/use-focus-first-error";
 import { REGIONS } from "@/lib/regions";
 import { SPECIALISMS } from "@/lib/validation/reviewer";
 import type { ReviewerProfile } from "@/lib/types/reviewers";
@@ -11,13 +12,14 @@ import { saveProfile, type FormState } from "./actions";
 
 export function ProfileForm({ profile }: { profile: ReviewerProfile | null }) {
   const [state, action, pending] = useActionState<FormState, FormData>(saveProfile, { ok: false });
+  const formRef = useFocusFirstError(state);
   const v = state.values;
   const val = (k: string, fallback: unknown) =>
     String((v?.[k] as string | undefined) ?? fallback ?? "");
   const e = state.fieldErrors;
   const chosen = new Set((v?.specialisms as string[] | undefined) ?? profile?.specialisms ?? []);
   return (
-    <form action={action} className="space-y-4" aria-label="Reviewer profile">
+    <form ref={formRef} action={action} className="space-y-4" aria-label="Reviewer profile">
       <div className="grid gap-x-4 gap-y-2 sm:grid-cols-2">
         <FormField
           name="tradingName"
