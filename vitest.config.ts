@@ -3,6 +3,14 @@ import { fileURLToPath } from "node:url";
 
 const root = fileURLToPath(new URL(".", import.meta.url));
 
+// The test stack's payment fake (tests/support/fakes.ts keeps the same numbers): code under test
+// that builds its own payment client from the environment, such as the demo seed, reaches it.
+const testPaymentsEnv = {
+  STRIPE_API_HOST: "127.0.0.1",
+  STRIPE_API_PORT: String(12112 + Number(process.env.TEST_PORT_OFFSET ?? 0)),
+  STRIPE_API_PROTOCOL: "http",
+};
+
 /**
  * Three projects; `vitest run` runs them all, one group after another (unit, then integration,
  * then e2e), because integration and e2e share the test database. Run one with
@@ -34,6 +42,7 @@ export default defineConfig({
         extends: true,
         test: {
           name: "integration",
+          env: testPaymentsEnv,
           include: ["tests/integration/**/*.test.ts"],
           globalSetup: ["tests/support/global-setup-integration.ts"],
           // The files share one database: run them one at a time.
@@ -48,6 +57,7 @@ export default defineConfig({
         extends: true,
         test: {
           name: "e2e",
+          env: testPaymentsEnv,
           include: ["tests/e2e/**/*.test.ts"],
           globalSetup: ["tests/support/global-setup.ts"],
           // The files share one database and one server: run them one at a time.

@@ -51,6 +51,16 @@ wait_for_app() { # pid: wait until /api/health answers, or fail if the app proce
   log "the app did not answer within 60 s"; exit 1
 }
 
+wait_for_url() { # name, url, pid: wait until the url answers, or fail if the process died
+  for _ in $(seq 1 120); do
+    if ! kill -0 "$3" 2>/dev/null; then log "the $1 did not start"; exit 1; fi
+    if node -e 'fetch(process.argv[1]).then((r) => process.exit(r.ok ? 0 : 1), () => process.exit(1))' \
+      "$2"; then return; fi
+    sleep 0.25
+  done
+  log "the $1 did not answer within 30 s"; exit 1
+}
+
 prepare() {
   ensure_node_modules
   node --import tsx lib/env-check.ts
@@ -61,12 +71,14 @@ case "${1:-}" in
   start|dev)
     prepare
     npx tsx db/migrate.ts latest
-    npx tsx db/seed.ts
     trap cleanup EXIT INT TERM
     start_background mail-fake node --import tsx mocks/mail/server.ts
     start_background upload-fake node --import tsx mocks/uploads/server.ts
     export PAYMENTS_FAKE_WEBHOOK_URL="${PAYMENTS_FAKE_WEBHOOK_URL:-http://127.0.0.1:$PORT/api/webhooks/payments}"
     start_background payments-fake node --import tsx mocks/payments/server.ts
+    # The demo seed pays for its jobs on the payment fake's pages, so the fake comes first.
+    wait_for_url "payment fake" "http://127.0.0.1:${STRIPE_API_PORT:-12111}/_fake/health" "${PIDS[-1]}"
+    npx tsx db/seed.ts
     start_background worker node --import tsx lib/worker/main.ts
     if [ "$1" = start ]; then
       log "building the app"

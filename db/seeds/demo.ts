@@ -1,16 +1,44 @@
 /**
  * The demo scenario: invented people in invented towns, marked is_demo. Nothing here comes
  * from a real installation; the systems are variations of lib/calc/demo-system.ts.
+ *
+ * It is written the way people would make it, through the same lib/data functions as the app:
+ * sign-ups, profiles, credentials checked by the admin, projects described step by step,
+ * requests, quotes, acceptance, payment on the payment service's checkout page (the local fake,
+ * which must be running), the review, delivery, disputes, release and refunds. So every demo
+ * row obeys the same rules, e-mails and audit trail as real use. Only the demo flag is the
+ * seed's own (lib/data/demo.ts).
+ *
  * Idempotent: if the demo admin exists the scenario is already there and nothing is written.
+ * One transaction: a failure halfway leaves nothing behind (calls already made to the payment
+ * fake stay there, unused).
  */
 import type { Knex } from "knex";
-import bcrypt from "bcryptjs";
 import { demoSystem } from "../../lib/calc/demo-system";
-import { runLoopCheck } from "../../lib/calc/loop-check";
-import { systemSchema, type SystemInput } from "../../lib/validation/system";
-import { CATALOGUE_VERSION } from "../../lib/checklist/catalogue";
+import { systemSchema, systemSections, type SystemInput } from "../../lib/validation/system";
 import { CREDENTIAL_KINDS } from "../../lib/credentials";
-import { JOB_STATES, splitFee } from "../../lib/jobs";
+import { JOB_STATES, type JobState } from "../../lib/jobs";
+import { CATALOGUE_VERSION } from "../../lib/checklist/catalogue";
+import { env } from "../../lib/env";
+import type { Actor } from "../../lib/data/actor";
+import { createAccount, createAdminAccount } from "../../lib/data/accounts";
+import { markDemoAccount } from "../../lib/data/demo";
+import { saveReviewerProfile, addCredential, decideCredential } from "../../lib/data/reviewers";
+import { startPayoutSetup, syncPayoutAccount } from "../../lib/data/payments";
+import { createProject, createRequest, saveProjectSection } from "../../lib/data/projects";
+import { acceptQuote, submitQuote } from "../../lib/data/quotes";
+import {
+  cancelJob,
+  jobServices,
+  openDispute,
+  releaseJob,
+  settleDispute,
+  startCheckout,
+  startReview,
+  syncCheckout,
+  transitionJob,
+  type JobServices,
+} from "../../lib/data/jobs";
 
 export const DEMO_PASSWORD = "demo-loop-2026";
 
@@ -76,8 +104,7 @@ function variant(i: number, region: string): SystemInput {
 }
 
 const addDays = (d: Date, days: number) => new Date(d.getTime() + days * 86_400_000);
-const sqlDate = (d: Date) => d.toISOString().slice(0, 10);
-const sqlDateTime = (d: Date) => d.toISOString().slice(0, 23).replace("T", " ");
+const isoDate = (d: Date) => d.toISOString().slice(0, 10);
 
 export interface SeedSummary {
   seeded: boolean;
@@ -87,267 +114,238 @@ export interface SeedSummary {
   jobs: number;
 }
 
-export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummary> {
+/** Acts on the payment fake's own pages, as the person in the browser would. */
+async function submitFakePage(url: string, form: Record<string, string>): Promise<void> {
+  const res = await fetch(url, {
+    method: "POST",
+    body: new URLSearchParams(form),
+    redirect: "manual",
+  });
+  if (res.status >= 400)
+    throw new Error(`the payment fake's page answered ${res.status} at ${new URL(url).pathname}`);
+}
+
+/** The states a demo job passes through to reach `target`, after acceptance. */
+function pathTo(target: JobState): JobState[] {
+  const paths: Record<JobState, JobState[]> = {
+    awaiting_payment: [],
+    cancelled: ["cancelled"],
+    funded: ["funded"],
+    in_review: ["funded", "in_review"],
+    delivered: ["funded", "in_review", "delivered"],
+    disputed: ["funded", "in_review", "delivered", "disputed"],
+    released: ["funded", "in_review", "delivered", "released"],
+    partially_refunded: ["funded", "in_review", "delivered", "disputed", "partially_refunded"],
+    refunded: ["funded", "in_review", "delivered", "disputed", "refunded"],
+  };
+  return paths[target];
+}
+
+export async function seedDemo(knex: Knex, svc: JobServices = jobServices()): Promise<SeedSummary> {
+  const appUrl = env().APP_URL;
+  const now = new Date();
   return knex.transaction(async (trx) => {
     const existing = await trx("users").where({ email: DEMO_USERS.admin.email }).first("id");
     if (existing) return { seeded: false, users: 0, projects: 0, requests: 0, jobs: 0 };
 
-    const hash = await bcrypt.hash(DEMO_PASSWORD, 10);
-    const insertUser = async (email: string, name: string, role: string) => {
-      const [id] = await trx("users").insert({
-        email,
-        display_name: name,
-        role,
-        password_hash: hash,
-        email_verified_at: sqlDateTime(now),
-        is_demo: true,
-      });
-      return Number(id);
+    const admin: Actor = await createAdminAccount(trx, {
+      email: DEMO_USERS.admin.email,
+      displayName: DEMO_USERS.admin.name,
+      password: DEMO_PASSWORD,
+    });
+    await markDemoAccount(trx, admin.id);
+    const signUp = async (email: string, displayName: string, role: "homeowner" | "reviewer") => {
+      const user = await createAccount(
+        trx,
+        { email, displayName, role, password: DEMO_PASSWORD },
+        appUrl,
+      );
+      await markDemoAccount(trx, user.id);
+      return { id: user.id, role: user.role };
     };
 
-    const adminId = await insertUser(DEMO_USERS.admin.email, DEMO_USERS.admin.name, "admin");
-    const homeownerIds: number[] = [];
+    const homeowners: Actor[] = [];
     for (const h of DEMO_USERS.homeowners)
-      homeownerIds.push(await insertUser(h.email, h.name, "homeowner"));
+      homeowners.push(await signUp(h.email, h.name, "homeowner"));
 
-    const reviewerIds: number[] = [];
-    for (const r of DEMO_USERS.reviewers) {
-      const id = await insertUser(r.email, r.name, "reviewer");
-      reviewerIds.push(id);
-      await trx("reviewer_profiles").insert({
-        user_id: id,
-        trading_name: `${r.trading} (demo)`,
+    // Reviewers: a profile, one credential of each kind checked by the admin (or still waiting),
+    // and for the first a payout account set up on the payment fake's page.
+    const reviewers: Actor[] = [];
+    for (const [n, r] of DEMO_USERS.reviewers.entries()) {
+      const reviewer = await signUp(r.email, r.name, "reviewer");
+      reviewers.push(reviewer);
+      await saveReviewerProfile(trx, reviewer, {
+        tradingName: `${r.trading} (demo)`,
         bio: "Demo reviewer. Solar thermal, unvented cylinders and boiler integration.",
-        years_in_trade: 8 + reviewerIds.length * 3,
-        specialisms: JSON.stringify(["flat_plate", "evacuated_tube", "unvented_cylinders"]),
+        yearsInTrade: 11 + n * 3,
+        specialisms: ["flat_plate", "evacuated_tube", "unvented_cylinders"],
         region: r.region,
-        travel_radius_km: 40,
-        hourly_rate_minor: 5500,
-        currency: "GBP",
-        // Payout accounts are set up on the payment service's page (the demo tour does it).
-        payment_account_id: null,
-        payouts_enabled: false,
+        travelRadiusKm: 40,
+        hourlyRatePounds: 55,
       });
       for (const kind of CREDENTIAL_KINDS) {
-        const status =
-          r.state === "verified"
-            ? "verified"
-            : r.state === "expired" && kind === "public_liability_insurance"
-              ? "expired"
-              : r.state === "expired"
-                ? "verified"
-                : "pending";
-        const expires = status === "expired" ? addDays(now, -10) : addDays(now, 300);
-        await trx("credentials").insert({
-          reviewer_id: id,
+        const id = await addCredential(trx, reviewer, {
           kind,
           issuer: "Demo Trade Body",
-          number: `DEMO-${id}-${kind.slice(0, 4).toUpperCase()}`,
-          expires_on: sqlDate(expires),
-          status,
-          reviewed_by: status === "pending" ? null : adminId,
-          reviewed_at: status === "pending" ? null : sqlDateTime(addDays(now, -30)),
+          number: `DEMO-${reviewer.id}-${kind.slice(0, 4).toUpperCase()}`,
+          expiresOn: isoDate(addDays(now, 300)),
         });
+        if (r.state === "pending") continue;
+        // The expired reviewer's insurance ran out ten days ago: the admin read that date off it.
+        const lapsed = r.state === "expired" && kind === "public_liability_insurance";
+        await decideCredential(
+          trx,
+          admin,
+          {
+            decision: "verify",
+            credentialId: id,
+            expiresOn: isoDate(addDays(now, lapsed ? -10 : 300)),
+          },
+          appUrl,
+        );
       }
     }
-    const verifiedReviewers = reviewerIds.slice(0, 2);
+    const [sol, ines] = reviewers as [Actor, Actor];
+    const setupUrl = await startPayoutSetup(trx, sol, svc);
+    const link = new URL(setupUrl);
+    await submitFakePage(`${link.origin}${link.pathname}`, {
+      link: link.searchParams.get("link") ?? "",
+      action: "complete",
+    });
+    await syncPayoutAccount(trx, sol, svc);
 
+    // Projects, described step by step; the last one is a draft with three steps done.
     const regions = ["south-west", "wales", "south-east", "yorkshire"];
-    const projectIds: { id: number; owner: number; region: string; collectorType: string }[] = [];
+    const projects: { id: number; owner: Actor }[] = [];
     for (let i = 0; i < 14; i++) {
-      const owner = homeownerIds[i % homeownerIds.length]!;
-      const region = regions[i % regions.length]!;
-      const system = systemSchema.parse(variant(i, region));
-      const check = runLoopCheck(system);
-      const [id] = await trx("projects").insert({
-        owner_id: owner,
+      const owner = homeowners[i % homeowners.length]!;
+      const system = systemSchema.parse(variant(i, regions[i % regions.length]!));
+      const id = await createProject(trx, owner, {
         title: `${DEMO_USERS.homeowners[i % 4]!.town} house, loop ${Math.floor(i / 4) + 1} (demo)`,
-        system: JSON.stringify(system),
-        region,
-        collector_type: system.collectors.type,
-        collector_area_m2: system.collectors.count * system.collectors.apertureAreaM2Each,
-        worst_level: check.worst,
-        status: i === 13 ? "draft" : "ready",
       });
-      projectIds.push({ id: Number(id), owner, region, collectorType: system.collectors.type });
+      const steps = i === 13 ? systemSections.slice(0, 3) : systemSections;
+      for (const section of steps)
+        await saveProjectSection(trx, owner, id, section, system[section]);
+      projects.push({ id, owner });
     }
 
-    // Requests: one per job state (awarded or cancelled), and the rest open on the board.
+    // Requests: one per job state, and the rest open on the board. Both verified reviewers quote
+    // on each; the homeowner takes the first reviewer's quote where there is a job.
     let requests = 0;
     let jobs = 0;
-    for (let i = 0; i < projectIds.length - 1; i++) {
-      const p = projectIds[i]!;
-      const kind = i % 3 === 0 ? "site_visit" : "remote_check";
-      const jobState = JOB_STATES[i];
-      const status =
-        jobState === undefined ? "open" : jobState === "cancelled" ? "cancelled" : "awarded";
-      const created = addDays(now, -20 + i);
-      const [requestId] = await trx("requests").insert({
-        project_id: p.id,
-        homeowner_id: p.owner,
-        kind,
-        status,
+    for (let i = 0; i < projects.length - 1; i++) {
+      const { id: projectId, owner } = projects[i]!;
+      const siteVisit = i % 3 === 0;
+      const requestId = await createRequest(trx, owner, projectId, {
+        kind: siteVisit ? "site_visit" : "remote_check",
         questions:
           "Is the vessel big enough for steam, and is the pre-charge right for the static height? (demo)",
-        budget_min_minor: 6000 + i * 500,
-        budget_max_minor: 15000 + i * 1000,
-        currency: "GBP",
-        region: p.region,
-        collector_type: p.collectorType,
-        window_start: kind === "site_visit" ? sqlDate(addDays(now, 7)) : null,
-        window_end: kind === "site_visit" ? sqlDate(addDays(now, 28)) : null,
-        access_notes:
-          kind === "site_visit" ? "Loft hatch on the landing; scaffold booked. (demo)" : null,
-        expires_at: sqlDateTime(addDays(created, 30)),
-        created_at: sqlDateTime(created),
+        budgetMinPounds: 60 + i * 5,
+        budgetMaxPounds: 150 + i * 10,
+        ...(siteVisit
+          ? {
+              windowStart: isoDate(addDays(now, 7)),
+              windowEnd: isoDate(addDays(now, 28)),
+              accessNotes: "Loft hatch on the landing; scaffold booked. (demo)",
+            }
+          : {}),
       });
       requests += 1;
       const quoteIds: number[] = [];
-      for (const [k, reviewerId] of verifiedReviewers.entries()) {
-        const [quoteId] = await trx("quotes").insert({
-          request_id: requestId,
-          reviewer_id: reviewerId,
-          price_minor: 8500 + k * 2000 + i * 100,
-          currency: "GBP",
-          turnaround_days: 3 + k * 2,
-          scope_md:
-            "Full checklist review of the sketch, photos and loop check, with a written report. (demo)",
-          proposed_visit_date: kind === "site_visit" ? sqlDate(addDays(now, 10 + k)) : null,
-          status: jobState ? (k === 0 ? "accepted" : "declined") : "live",
-        });
-        quoteIds.push(Number(quoteId));
-      }
-      if (jobState) {
-        const amount = 8500 + i * 100;
-        const fee = splitFee(amount, 12).feeMinor;
-        const funded = jobState !== "awaiting_payment";
-        const delivered = [
-          "delivered",
-          "disputed",
-          "released",
-          "partially_refunded",
-          "refunded",
-        ].includes(jobState);
-        const [jobId] = await trx("jobs").insert({
-          request_id: requestId,
-          quote_id: quoteIds[0],
-          homeowner_id: p.owner,
-          reviewer_id: verifiedReviewers[0],
-          state: jobState,
-          amount_minor: amount,
-          fee_minor: fee,
-          currency: "GBP",
-          checkout_session_id: `cs_demo_${requestId}`,
-          payment_intent_id: funded ? `pi_demo_${requestId}` : null,
-          funded_at: funded ? sqlDateTime(addDays(now, -5)) : null,
-          delivered_at: delivered ? sqlDateTime(addDays(now, -2)) : null,
-          release_due_at: jobState === "delivered" ? sqlDateTime(addDays(now, 5)) : null,
-          closed_at: ["released", "partially_refunded", "refunded", "cancelled"].includes(jobState)
-            ? sqlDateTime(now)
-            : null,
-        });
-        jobs += 1;
-        if (funded) {
-          await trx("ledger_entries").insert({
-            job_id: jobId,
-            kind: "charge",
-            amount_minor: amount,
-            currency: "GBP",
-            provider_ref: `pi_demo_${requestId}`,
-            idempotency_key: `job-${jobId}-charge`,
-          });
-        }
-        if (jobState === "released") {
-          await trx("ledger_entries").insert([
+      for (const [k, reviewer] of [sol, ines].entries()) {
+        quoteIds.push(
+          await submitQuote(
+            trx,
+            reviewer,
+            requestId,
             {
-              job_id: jobId,
-              kind: "fee",
-              amount_minor: fee,
-              currency: "GBP",
-              idempotency_key: `job-${jobId}-fee`,
+              pricePounds: 85 + k * 20 + i,
+              turnaroundDays: 3 + k * 2,
+              scopeMd:
+                "Full checklist review of the sketch, photos and loop check, with a written report. (demo)",
+              ...(siteVisit ? { proposedVisitDate: isoDate(addDays(now, 10 + k)) } : {}),
             },
-            {
-              job_id: jobId,
-              kind: "transfer",
-              amount_minor: amount - fee,
-              currency: "GBP",
-              provider_ref: `tr_demo_${jobId}`,
-              idempotency_key: `job-${jobId}-release`,
-            },
-          ]);
-        }
-        if (jobState === "refunded" || jobState === "partially_refunded") {
-          const refund = jobState === "refunded" ? amount : Math.round(amount / 2);
-          await trx("ledger_entries").insert({
-            job_id: jobId,
-            kind: "refund",
-            amount_minor: -refund,
-            currency: "GBP",
-            provider_ref: `re_demo_${jobId}`,
-            idempotency_key: `job-${jobId}-refund`,
-          });
-        }
-        if (["in_review", ...(delivered ? [jobState] : [])].includes(jobState)) {
-          await trx("reports").insert({
-            job_id: jobId,
-            catalogue_version: CATALOGUE_VERSION,
-            status: delivered ? "delivered" : "draft",
-            outcome: delivered ? "fix_before_filling" : null,
-            summary_md: delivered
-              ? "The loop is sound apart from the vessel: fit the larger size before filling. (demo)"
-              : null,
-            required_changes: JSON.stringify(
-              delivered ? ["Fit an 18 L solar expansion vessel on a cooling leg."] : [],
-            ),
-            delivered_at: delivered ? sqlDateTime(addDays(now, -2)) : null,
-          });
-        }
-        if (["disputed", "partially_refunded", "refunded"].includes(jobState)) {
-          await trx("disputes").insert({
-            job_id: jobId,
-            opened_by: p.owner,
-            reason: "The report did not answer my question about the relief discharge. (demo)",
-            status: jobState === "disputed" ? "open" : "settled",
-            resolution:
-              jobState === "refunded"
-                ? "full_refund"
-                : jobState === "partially_refunded"
-                  ? "partial_refund"
-                  : null,
-            refund_minor:
-              jobState === "refunded"
-                ? amount
-                : jobState === "partially_refunded"
-                  ? Math.round(amount / 2)
-                  : null,
-            settled_by: jobState === "disputed" ? null : adminId,
-            settled_at: jobState === "disputed" ? null : sqlDateTime(now),
-          });
-        }
-        if (jobState === "released") {
-          await trx("ratings").insert({
-            job_id: jobId,
-            rater_id: p.owner,
-            ratee_id: verifiedReviewers[0],
-            stars: 5,
-            comment: "Clear and quick. (demo)",
-          });
-        }
-        await trx("audit_log").insert({
-          actor_id: p.owner,
-          action: "job.seeded",
-          entity_type: "job",
-          entity_id: jobId,
-          detail: JSON.stringify({ state: jobState, demo: true }),
-        });
+            appUrl,
+          ),
+        );
       }
+      const target = JOB_STATES[i];
+      if (!target) continue;
+      const jobId = await acceptQuote(trx, owner, quoteIds[0]!, appUrl);
+      jobs += 1;
+      for (const state of pathTo(target)) await advance(trx, jobId, state, { owner, sol, admin });
     }
+
     return {
       seeded: true,
-      users: 1 + homeownerIds.length + reviewerIds.length,
-      projects: projectIds.length,
+      users: 1 + homeowners.length + reviewers.length,
+      projects: projects.length,
       requests,
       jobs,
     };
   });
+
+  /** One step of a demo job, by the person who would take it. */
+  async function advance(
+    trx: Knex.Transaction,
+    jobId: number,
+    state: JobState,
+    who: { owner: Actor; sol: Actor; admin: Actor },
+  ): Promise<void> {
+    switch (state) {
+      case "cancelled":
+        return cancelJob(trx, who.owner, jobId);
+      case "funded": {
+        // The homeowner pays with the test card on the fake's checkout page; the job is funded
+        // from the payment service's answer (the webhook may come later; it then changes nothing).
+        const url = await startCheckout(trx, who.owner, jobId, svc);
+        await submitFakePage(`${url}/pay`, { card: "ok" });
+        if ((await syncCheckout(trx, who.owner, jobId, svc)) !== "funded")
+          throw new Error(`demo job ${jobId} was not funded by its checkout`);
+        return;
+      }
+      case "in_review":
+        return startReview(trx, who.sol, jobId);
+      case "delivered":
+        await transitionJob(trx, who.sol, jobId, "deliver", async ({ trx: t }) => {
+          await t("reports").insert({
+            job_id: jobId,
+            catalogue_version: CATALOGUE_VERSION,
+            status: "delivered",
+            outcome: "fix_before_filling",
+            summary_md:
+              "The loop is sound apart from the vessel: fit the larger size before filling. (demo)",
+            required_changes: JSON.stringify([
+              "Fit an 18 L solar expansion vessel on a cooling leg.",
+            ]),
+            delivered_at: t.fn.now(3),
+          });
+        });
+        return;
+      case "disputed":
+        return openDispute(
+          trx,
+          who.owner,
+          jobId,
+          { reason: "The report did not answer my question about the relief discharge. (demo)" },
+          appUrl,
+        );
+      case "released":
+        return releaseJob(trx, who.owner, jobId, svc);
+      case "partially_refunded": {
+        const job = await trx("jobs").where({ id: jobId }).first("amount_minor");
+        return settleDispute(
+          trx,
+          who.admin,
+          jobId,
+          { resolution: "partial_refund", refundMinor: Math.round(Number(job.amount_minor) / 2) },
+          svc,
+        );
+      }
+      case "refunded":
+        return settleDispute(trx, who.admin, jobId, { resolution: "full_refund" }, svc);
+      case "awaiting_payment":
+        return;
+    }
+  }
 }

@@ -73,6 +73,37 @@ export async function createAccount(db: Db, input: unknown, appUrl: string): Pro
   }
 }
 
+/**
+ * An admin account, made by the operator from the command line (`npm run admin:create`) or by
+ * the demo seed: there is no sign-up for admins. The address counts as confirmed, since the
+ * operator typed it.
+ */
+export async function createAdminAccount(db: Db, input: unknown): Promise<AuthUser> {
+  const v = parseInput(signUpSchema.omit({ role: true }), input);
+  refuseCommonPassword(v.password);
+  const hash = await bcrypt.hash(v.password, BCRYPT_ROUNDS);
+  try {
+    return await db.transaction(async (trx) => {
+      const [id] = await trx("users").insert({
+        email: v.email,
+        password_hash: hash,
+        role: "admin",
+        display_name: v.displayName,
+        email_verified_at: sqlDateTime(),
+      });
+      const userId = Number(id);
+      await audit(trx, null, "user.admin_created", "user", userId);
+      return { id: userId, email: v.email, role: "admin" as const, displayName: v.displayName };
+    });
+  } catch (err) {
+    if ((err as { code?: string }).code === "ER_DUP_ENTRY")
+      throw unprocessable("Some details need attention.", {
+        email: ["An account with this e-mail already exists"],
+      });
+    throw err;
+  }
+}
+
 /** Check a password; null for an unknown address or a wrong password (the caller cannot tell which). */
 export async function authenticate(
   db: Db,

@@ -15,9 +15,6 @@ import type { LedgerRow, ReconciliationReport, ReviewerEarnings } from "@/lib/ty
 
 export type { LedgerRow, ReconciliationReport, ReviewerEarnings } from "@/lib/types/payments";
 
-/** The payment references the demo seed writes (db/seeds/demo.ts). */
-export const DEMO_PAYMENT_PREFIX = "pi_demo_";
-
 const jobIdOf = (metadata: Stripe.Metadata | null | undefined): number | null => {
   const n = Number(metadata?.jobId);
   return Number.isInteger(n) && n > 0 ? n : null;
@@ -233,10 +230,7 @@ export async function reconcile(
   svc: JobServices = jobServices(),
 ): Promise<ReconciliationReport> {
   if (actor.role !== "admin") throw forbidden();
-  // The seeded demo scenario's payments never went through the payment service: say so, and
-  // leave them out rather than report them as differences.
-  const all = await db("jobs").whereNotNull("payment_intent_id").select("id", "payment_intent_id");
-  const jobs = all.filter((j) => !String(j.payment_intent_id).startsWith(DEMO_PAYMENT_PREFIX));
+  const jobs = await db("jobs").whereNotNull("payment_intent_id").select("id", "payment_intent_id");
   const differences: ReconciliationReport["differences"] = [];
   for (const j of jobs) {
     const sums = await db("ledger_entries")
@@ -283,7 +277,6 @@ export async function reconcile(
   }
   return {
     checkedJobs: jobs.length,
-    skippedDemoJobs: all.length - jobs.length,
     differences,
     at: sqlDateTime(),
   };

@@ -19,8 +19,6 @@ export interface ReviewerEarnings {
 
 export interface ReconciliationReport {
   checkedJobs: number;
-  /** Jobs of the seeded demo scenario, whose payments never went through the service. */
-  skippedDemoJobs: number;
   differences: {
     jobId: number;
     what: "charge" | "refund" | "transfer" | "lookup";

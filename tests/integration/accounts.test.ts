@@ -2,6 +2,7 @@ import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
 import type { Knex } from "knex";
 import {
   createAccount,
+  createAdminAccount,
   authenticate,
   verifyEmail,
   requestPasswordReset,
@@ -79,6 +80,40 @@ describe("accounts against the real MariaDB", () => {
     expect(r.status).toBe(422);
     expect(r.fieldErrors?.role).toBeTruthy();
     expect(await knex("users").count({ n: "*" })).toEqual([{ n: 0 }]);
+  });
+
+  it("makes admins only through the operator's path: confirmed, audited, with the same password rules", async () => {
+    const admin = await createAdminAccount(knex, {
+      email: "Ops@Example.org",
+      displayName: "Ops Person",
+      password: good.password,
+    });
+    expect(admin).toMatchObject({ role: "admin", email: "ops@example.org" });
+    const row = await knex("users").where({ id: admin.id }).first("role", "email_verified_at");
+    expect(row.role).toBe("admin");
+    expect(row.email_verified_at).not.toBeNull();
+    expect(await knex("audit_log").where({ action: "user.admin_created" })).toHaveLength(1);
+    // No confirmation e-mail: the operator typed the address.
+    expect(await knex("email_outbox").where({ to_user_id: admin.id })).toHaveLength(0);
+    const dup = await refusalOf(
+      createAdminAccount(knex, {
+        email: "ops@example.org",
+        displayName: "Again",
+        password: good.password,
+      }),
+    );
+    expect(dup.status).toBe(422);
+    expect(dup.fieldErrors?.email?.[0]).toMatch(/already exists/);
+    const weak = await refusalOf(
+      createAdminAccount(knex, {
+        email: "ops2@example.org",
+        displayName: "Ops",
+        password: "password123",
+      }),
+    );
+    expect(weak.status).toBe(422);
+    expect(weak.fieldErrors?.password).toBeTruthy();
+    expect(await knex("users").where({ role: "admin" })).toHaveLength(1);
   });
 
   it("authenticates with the right password only, and says nothing about which part was wrong", async () => {

@@ -277,7 +277,14 @@ describe("e-mail outbox, worker and SMTP fake", () => {
 
   it("batches new-message e-mails: at most one per thread and recipient every 15 minutes", async () => {
     const request = await knex("requests").where({ status: "open" }).first("id", "homeowner_id");
-    const reviewer = await knex("users").where({ role: "reviewer" }).first("id");
+    // A reviewer with no thread on this request yet (the demo's quotes opened some).
+    const reviewer = await knex("users")
+      .where({ role: "reviewer" })
+      .whereNotIn(
+        "id",
+        knex("message_threads").where({ request_id: request.id }).select("reviewer_id"),
+      )
+      .first("id");
     const [threadId] = await knex("message_threads").insert({
       request_id: request.id,
       reviewer_id: reviewer.id,

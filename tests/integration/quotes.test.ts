@@ -40,8 +40,9 @@ describe("quotes and accepting one, against the real MariaDB", () => {
       .whereNot({ id: who.owner.id })
       .first("id");
     who.stranger = { id: Number(stranger.id), role: "homeowner" };
-    // Start from a request with no quotes on it.
+    // Start from a request with no quotes on it, and an outbox without the demo's own e-mails.
     await knex("quotes").where({ request_id: requestId }).del();
+    await knex("email_outbox").del();
   });
   afterAll(async () => {
     await truncateAll(knex);

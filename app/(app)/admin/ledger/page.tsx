@@ -47,12 +47,6 @@ export default async function LedgerPage({
       </div>
       <Card>
         <h2 className="text-xl font-bold">Reconciliation with the payment service</h2>
-        {report && report.skippedDemoJobs > 0 ? (
-          <p className="mt-2 text-sm text-slate-600">
-            {report.skippedDemoJobs} jobs of the demo scenario were not checked: their payments were
-            written by the demo data, not made through the payment service.
-          </p>
-        ) : null}
         {report ? (
           report.differences.length === 0 ? (
             <p className="mt-2 text-level-ok" role="status">
