@@ -7,7 +7,11 @@ export function Evidence({ findings }: { findings: readonly Finding[] }) {
   return (
     <ul className="space-y-2">
       {findings.map((f, i) => (
-        <li key={`${f.key}-${i}`} className="rounded-lg border border-slate-200 bg-white p-3" data-evidence={f.key}>
+        <li
+          key={`${f.key}-${i}`}
+          className="rounded-lg border border-slate-200 bg-white p-3"
+          data-evidence={f.key}
+        >
           <p className="flex flex-wrap items-center gap-2 font-semibold">
             <LevelBadge level={f.level} /> {f.title}
           </p>

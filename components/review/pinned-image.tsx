@@ -23,7 +23,10 @@ export function PinnedImage({ fileId, alt, pins, highlight, onPick, className }:
         src={`/api/files/${fileId}`}
         alt={alt}
         data-pin-target={onPick ? fileId : undefined}
-        className={cn("block max-h-[70vh] w-auto max-w-full rounded-lg", onPick && "cursor-crosshair")}
+        className={cn(
+          "block max-h-[70vh] w-auto max-w-full rounded-lg",
+          onPick && "cursor-crosshair",
+        )}
         onClick={
           onPick
             ? (e) => {

@@ -1,10 +1,16 @@
 "use client";
 
-import { useCallback, useEffect, useMemo, useRef, useState } from "react";
+import { useCallback, useMemo, useRef, useState } from "react";
+import { useRouter } from "next/navigation";
 import { useQuery } from "@tanstack/react-query";
 import { checkDelivery } from "@/lib/checklist/delivery";
 import { numberPins } from "@/lib/checklist/pins";
-import { OUTCOME_HINTS, OUTCOME_LABELS, VERDICT_HINTS, VERDICT_LABELS } from "@/lib/checklist/verdicts";
+import {
+  OUTCOME_HINTS,
+  OUTCOME_LABELS,
+  VERDICT_HINTS,
+  VERDICT_LABELS,
+} from "@/lib/checklist/verdicts";
 import {
   OUTCOMES,
   VERDICTS,
@@ -39,7 +45,11 @@ interface Problem {
   newer?: Answer | ReportDraft;
 }
 
-const fieldsOf = (a: Answer): AnswerFields => ({ verdict: a.verdict, noteMd: a.noteMd, pins: a.pins });
+const fieldsOf = (a: Answer): AnswerFields => ({
+  verdict: a.verdict,
+  noteMd: a.noteMd,
+  pins: a.pins,
+});
 const draftFieldsOf = (d: ReportDraft): DraftFields => ({
   outcome: d.outcome,
   summaryMd: d.summaryMd,
@@ -83,10 +93,12 @@ export function ReviewWorkspace({ initial, canEdit }: { initial: Workspace; canE
   const chains = useRef<Record<string, Promise<void>>>({});
   const timers = useRef<Record<string, ReturnType<typeof setTimeout>>>({});
 
-  const mark = useCallback(
-    (key: string, p: Problem) => setStatus((s) => ({ ...s, [key]: p })),
-    [],
-  );
+  const inflight = useRef<Record<string, boolean>>({});
+  const statusRef = useRef<Record<string, Problem>>({});
+  const mark = useCallback((key: string, p: Problem) => {
+    statusRef.current = { ...statusRef.current, [key]: p };
+    setStatus((s) => ({ ...s, [key]: p }));
+  }, []);
 
   /** Queue a save of these fields; saves of one item run one after another. */
   const save = useCallback(
@@ -101,6 +113,7 @@ export function ReviewWorkspace({ initial, canEdit }: { initial: Workspace; canE
         const body = pending.current[key];
         if (!body) return;
         pending.current[key] = undefined;
+        inflight.current[key] = true;
         try {
           const res = await fetch(url, {
             method: "PUT",
@@ -116,7 +129,10 @@ export function ReviewWorkspace({ initial, canEdit }: { initial: Workspace; canE
           const err = await errorOf(res);
           if (res.status === 409 && err.current) {
             // Keep what this tab has; the reviewer chooses.
-            pending.current[key] = { ...body, ...(pending.current[key] as Record<string, unknown> | undefined) };
+            pending.current[key] = {
+              ...body,
+              ...(pending.current[key] as Record<string, unknown> | undefined),
+            };
             mark(key, {
               status: "conflict",
               message: err.message,
@@ -126,11 +142,17 @@ export function ReviewWorkspace({ initial, canEdit }: { initial: Workspace; canE
             mark(key, { status: "error", message: err.message });
           }
         } catch {
-          pending.current[key] = { ...body, ...(pending.current[key] as Record<string, unknown> | undefined) };
+          pending.current[key] = {
+            ...body,
+            ...(pending.current[key] as Record<string, unknown> | undefined),
+          };
           mark(key, {
             status: "error",
-            message: "Not saved: the connection dropped. Your text is kept here; it saves with your next change.",
+            message:
+              "Not saved: the connection dropped. Your text is kept here; it saves with your next change.",
           });
+        } finally {
+          inflight.current[key] = false;
         }
       };
       chains.current[key] = (chains.current[key] ?? Promise.resolve()).then(run);
@@ -173,47 +195,42 @@ export function ReviewWorkspace({ initial, canEdit }: { initial: Workspace; canE
     }
   };
 
-  // Newer saves from another tab, and the homeowner's answers, without a reload.
-  const remote = useQuery({
-    queryKey: ["review", jobId],
-    queryFn: async (): Promise<ReviewState> => {
-      const res = await fetch(`/api/jobs/${jobId}/review`);
-      if (!res.ok) throw new Error((await errorOf(res)).message);
-      return res.json();
-    },
-    initialData: {
-      answers: initial.answers,
-      draft: initial.draft,
-      itemRequests: initial.itemRequests,
-    },
-    refetchInterval: 20_000,
-    refetchOnWindowFocus: true,
-  });
-  useEffect(() => {
-    const data = remote.data;
-    if (!data) return;
+  // Newer saves from another tab, and the homeowner's answers, without a reload: merged as
+  // they arrive, for items this tab is not saving or holding unsaved changes for.
+  const merge = (data: ReviewState) => {
     setRequests(data.itemRequests);
-    const idle = (k: string) => !pending.current[k] && status[k]?.status !== "saving";
+    const idle = (k: string) =>
+      !pending.current[k] && !inflight.current[k] && statusRef.current[k]?.status !== "conflict";
     for (const a of Object.values(data.answers)) {
-      const mine = versions.current[a.itemKey] ?? 0;
-      if (a.version <= mine) continue;
-      if (idle(a.itemKey)) {
-        versions.current[a.itemKey] = a.version;
-        setLocal((l) => ({ ...l, [a.itemKey]: fieldsOf(a) }));
-      }
+      if (a.version <= (versions.current[a.itemKey] ?? 0) || !idle(a.itemKey)) continue;
+      versions.current[a.itemKey] = a.version;
+      setLocal((l) => ({ ...l, [a.itemKey]: fieldsOf(a) }));
     }
     if (data.draft.version > (versions.current[DRAFT] ?? 0) && idle(DRAFT)) {
       versions.current[DRAFT] = data.draft.version;
       setDraft(draftFieldsOf(data.draft));
     }
-    // Only when new data arrives; `status` is read as it stands then.
-    // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [remote.data]);
+  };
+  useQuery({
+    queryKey: ["review", jobId],
+    queryFn: async (): Promise<ReviewState> => {
+      const res = await fetch(`/api/jobs/${jobId}/review`);
+      if (!res.ok) throw new Error((await errorOf(res)).message);
+      const data = (await res.json()) as ReviewState;
+      merge(data);
+      return data;
+    },
+    refetchInterval: 20_000,
+    refetchOnWindowFocus: true,
+    refetchOnMount: false,
+    initialData: {
+      answers: initial.answers,
+      draft: initial.draft,
+      itemRequests: initial.itemRequests,
+    },
+  });
 
-  const pins = useMemo(
-    () => numberPins(itemKeys, (k) => local[k]?.pins),
-    [itemKeys, local],
-  );
+  const pins = useMemo(() => numberPins(itemKeys, (k) => local[k]?.pins), [itemKeys, local]);
   const sections = useMemo(() => {
     const out: { name: string; items: ReviewItem[] }[] = [];
     for (const item of items) {
@@ -256,14 +273,20 @@ export function ReviewWorkspace({ initial, canEdit }: { initial: Workspace; canE
                       : "border-slate-300 bg-white",
                   )}
                 >
-                  {s.name} <span className="tabular-nums">{n}/{s.items.length}</span>
+                  {s.name}{" "}
+                  <span className="tabular-nums">
+                    {n}/{s.items.length}
+                  </span>
                   {n === s.items.length ? <span className="sr-only">(done)</span> : null}
                 </a>
               </li>
             );
           })}
           <li>
-            <a href="#report-draft" className="inline-flex min-h-9 items-center rounded-full border border-copper-700 px-3 font-semibold text-copper-700">
+            <a
+              href="#report-draft"
+              className="inline-flex min-h-9 items-center rounded-full border border-copper-700 px-3 font-semibold text-copper-700"
+            >
               Report and delivery
             </a>
           </li>
@@ -271,7 +294,12 @@ export function ReviewWorkspace({ initial, canEdit }: { initial: Workspace; canE
       </nav>
 
       {sections.map((s) => (
-        <section key={s.name} id={`section-${slug(s.name)}`} aria-labelledby={`h-${slug(s.name)}`} className="space-y-4">
+        <section
+          key={s.name}
+          id={`section-${slug(s.name)}`}
+          aria-labelledby={`h-${slug(s.name)}`}
+          className="space-y-4"
+        >
           <h2 id={`h-${slug(s.name)}`} className="text-2xl font-bold">
             {s.name}
           </h2>
@@ -324,7 +352,12 @@ const slug = (s: string) => s.toLowerCase().replace(/[^a-z0-9]+/g, "-");
 function SaveState({ problem, label }: { problem?: Problem; label: string }) {
   const s = problem?.status ?? "idle";
   return (
-    <p aria-live="polite" className="min-h-6 text-sm" data-save-state={s} data-testid={`save-${label}`}>
+    <p
+      aria-live="polite"
+      className="min-h-6 text-sm"
+      data-save-state={s}
+      data-testid={`save-${label}`}
+    >
       {s === "saving" ? <span className="text-slate-600">Saving…</span> : null}
       {s === "saved" ? <span className="font-semibold text-level-ok">✓ Saved</span> : null}
       {s === "error" ? (
@@ -350,7 +383,11 @@ function ConflictBox({
 }) {
   if (problem?.status !== "conflict") return null;
   return (
-    <div role="alert" className="space-y-2 rounded-lg border-2 border-level-fix bg-level-fix-bg p-3" data-testid="conflict">
+    <div
+      role="alert"
+      className="space-y-2 rounded-lg border-2 border-level-fix bg-level-fix-bg p-3"
+      data-testid="conflict"
+    >
       <p className="font-semibold">{problem.message}</p>
       <div className="rounded bg-white p-2">{children}</div>
       <div className="flex flex-wrap gap-2">
@@ -422,7 +459,9 @@ function ItemCard(p: ItemCardProps) {
           <p className="mt-1">{item.check}</p>
           <p className="mt-1 text-sm text-slate-600">
             Basis: {item.basis}
-            {item.appliesWhen && item.appliesWhen !== "always" ? ` · Applies because ${item.appliesWhen}` : ""}
+            {item.appliesWhen && item.appliesWhen !== "always"
+              ? ` · Applies because ${item.appliesWhen}`
+              : ""}
           </p>
         </div>
         <SaveState problem={p.problem} label={item.key} />
@@ -455,7 +494,8 @@ function ItemCard(p: ItemCardProps) {
                       className="h-24 w-24 rounded object-cover"
                     />
                     <span className="block max-w-24 truncate text-xs">
-                      {item.photoIds.includes(f.id) ? "Tagged" : "Same area"}: {f.caption ?? f.fileName}
+                      {item.photoIds.includes(f.id) ? "Tagged" : "Same area"}:{" "}
+                      {f.caption ?? f.fileName}
                     </span>
                   </a>
                 </li>
@@ -500,7 +540,10 @@ function ItemCard(p: ItemCardProps) {
 
       <div className="space-y-1">
         <label htmlFor={`${id}-note`} className="font-semibold">
-          Note <span className="font-normal text-slate-600">(Markdown, up to {NOTE_MAX.toLocaleString("en-GB")} characters)</span>
+          Note{" "}
+          <span className="font-normal text-slate-600">
+            (Markdown, up to {NOTE_MAX.toLocaleString("en-GB")} characters)
+          </span>
         </label>
         <textarea
           id={`${id}-note`}
@@ -523,7 +566,8 @@ function ItemCard(p: ItemCardProps) {
         {newer ? (
           <>
             <p className="text-sm">
-              Verdict: {newer.verdict ? VERDICT_LABELS[newer.verdict] : "none"} · {newer.pins.length} pins
+              Verdict: {newer.verdict ? VERDICT_LABELS[newer.verdict] : "none"} ·{" "}
+              {newer.pins.length} pins
             </p>
             <div className="prose prose-sm" data-testid="newer-text">
               <Markdown>{newer.noteMd || "(no note)"}</Markdown>
@@ -544,13 +588,20 @@ function ItemCard(p: ItemCardProps) {
         {myPins.length ? (
           <ol className="space-y-1">
             {myPins.map((pin, i) => (
-              <li key={`${pin.n}`} className="flex flex-wrap items-center gap-2" data-pin-row={pin.n}>
+              <li
+                key={`${pin.n}`}
+                className="flex flex-wrap items-center gap-2"
+                data-pin-row={pin.n}
+              >
                 <span className="inline-flex h-7 w-7 items-center justify-center rounded-full bg-copper-700 text-sm font-bold text-white">
                   {pin.n}
                 </span>
                 <span>{pin.label}</span>
                 <span className="text-sm text-slate-600">
-                  on {files.find((f) => f.id === pin.attachmentId)?.caption ?? files.find((f) => f.id === pin.attachmentId)?.fileName ?? "an image"}
+                  on{" "}
+                  {files.find((f) => f.id === pin.attachmentId)?.caption ??
+                    files.find((f) => f.id === pin.attachmentId)?.fileName ??
+                    "an image"}
                 </span>
                 {p.canEdit ? (
                   <Button
@@ -675,7 +726,10 @@ function ItemQuestions({
                   {/* eslint-disable-next-line @next/next/no-img-element -- a private file behind our access check */}
                   <img
                     src={`/api/files/${r.answerAttachmentId}?variant=thumbnail`}
-                    alt={files.find((f) => f.id === r.answerAttachmentId)?.caption ?? "The homeowner's photo"}
+                    alt={
+                      files.find((f) => f.id === r.answerAttachmentId)?.caption ??
+                      "The homeowner's photo"
+                    }
                     className="mt-1 h-24 w-24 rounded object-cover"
                   />
                 </a>
@@ -693,7 +747,13 @@ function ItemQuestions({
               <legend className="sr-only">What you need</legend>
               {(["photo", "fact"] as const).map((k) => (
                 <label key={k} className="flex min-h-11 items-center gap-2">
-                  <input type="radio" name={`ask-${item.key}`} checked={kind === k} onChange={() => setKind(k)} className="h-5 w-5" />
+                  <input
+                    type="radio"
+                    name={`ask-${item.key}`}
+                    checked={kind === k}
+                    onChange={() => setKind(k)}
+                    className="h-5 w-5"
+                  />
                   {k === "photo" ? "A photo" : "A fact"}
                 </label>
               ))}
@@ -756,17 +816,24 @@ function ReportDraftPanel({
   onResolve: (keepMine: boolean) => void;
   saving: () => boolean;
 }) {
+  const router = useRouter();
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<string | null>(null);
   const newer = problem?.newer as ReportDraft | undefined;
   const changes = draft.requiredChanges;
-  const setChanges = (next: RequiredChange[], soon = false) => onChange({ requiredChanges: next }, soon);
+  const setChanges = (next: RequiredChange[], soon = false) =>
+    onChange({ requiredChanges: next }, soon);
   const deliver = async () => {
     if (saving()) {
       setError("Wait until every change is saved, then deliver.");
       return;
     }
-    if (!window.confirm("Deliver the report? It is frozen once delivered; later notes go in a dated addendum.")) return;
+    if (
+      !window.confirm(
+        "Deliver the report? It is frozen once delivered; later notes go in a dated addendum.",
+      )
+    )
+      return;
     setBusy(true);
     setError(null);
     const res = await fetch(`/api/jobs/${jobId}/deliver`, { method: "POST" }).catch(() => null);
@@ -778,10 +845,14 @@ function ReportDraftPanel({
       setBusy(false);
       return setError((await errorOf(res)).message);
     }
-    window.location.assign(`/jobs/${jobId}/report`);
+    router.push(`/jobs/${jobId}/report`);
   };
   return (
-    <section id="report-draft" aria-labelledby="report-draft-title" className="space-y-4 rounded-card border-2 border-copper-700 bg-white p-4 md:p-6">
+    <section
+      id="report-draft"
+      aria-labelledby="report-draft-title"
+      className="space-y-4 rounded-card border-2 border-copper-700 bg-white p-4 md:p-6"
+    >
       <div className="flex flex-wrap items-start justify-between gap-2">
         <h2 id="report-draft-title" className="text-2xl font-bold">
           The report
@@ -809,7 +880,10 @@ function ReportDraftPanel({
       </fieldset>
       <div className="space-y-1">
         <label htmlFor="summary" className="font-semibold">
-          Summary for the homeowner <span className="font-normal text-slate-600">(Markdown, up to {SUMMARY_MAX.toLocaleString("en-GB")} characters)</span>
+          Summary for the homeowner{" "}
+          <span className="font-normal text-slate-600">
+            (Markdown, up to {SUMMARY_MAX.toLocaleString("en-GB")} characters)
+          </span>
         </label>
         <textarea
           id="summary"
@@ -824,7 +898,11 @@ function ReportDraftPanel({
       <div className="space-y-3">
         <p className="font-semibold">Required changes</p>
         {changes.map((c, i) => (
-          <div key={i} className="space-y-2 rounded-lg border border-slate-200 p-3" data-change={i + 1}>
+          <div
+            key={i}
+            className="space-y-2 rounded-lg border border-slate-200 p-3"
+            data-change={i + 1}
+          >
             <label className="block text-sm font-semibold" htmlFor={`change-${i}`}>
               Change {i + 1}: what to do
             </label>
@@ -833,19 +911,33 @@ function ReportDraftPanel({
               disabled={!canEdit}
               value={c.text}
               maxLength={500}
-              onChange={(e) => setChanges(changes.map((x, j) => (j === i ? { ...x, text: e.target.value } : x)), true)}
+              onChange={(e) =>
+                setChanges(
+                  changes.map((x, j) => (j === i ? { ...x, text: e.target.value } : x)),
+                  true,
+                )
+              }
               onBlur={onFlush}
               className="min-h-11 w-full rounded-lg border border-slate-300 px-3"
             />
             <div className="flex flex-wrap items-center gap-2">
               {c.itemKeys.map((k) => (
-                <span key={k} className="inline-flex items-center gap-1 rounded-full bg-slate-100 px-3 py-1 text-sm">
+                <span
+                  key={k}
+                  className="inline-flex items-center gap-1 rounded-full bg-slate-100 px-3 py-1 text-sm"
+                >
                   {items.find((it) => it.key === k)?.title ?? k}
                   {canEdit ? (
                     <button
                       type="button"
                       aria-label={`Unlink ${items.find((it) => it.key === k)?.title ?? k}`}
-                      onClick={() => setChanges(changes.map((x, j) => (j === i ? { ...x, itemKeys: x.itemKeys.filter((y) => y !== k) } : x)))}
+                      onClick={() =>
+                        setChanges(
+                          changes.map((x, j) =>
+                            j === i ? { ...x, itemKeys: x.itemKeys.filter((y) => y !== k) } : x,
+                          ),
+                        )
+                      }
                       className="ml-1 font-bold"
                     >
                       ×
@@ -859,7 +951,12 @@ function ReportDraftPanel({
                   value=""
                   onChange={(e) => {
                     const k = e.target.value;
-                    if (k) setChanges(changes.map((x, j) => (j === i ? { ...x, itemKeys: [...x.itemKeys, k] } : x)));
+                    if (k)
+                      setChanges(
+                        changes.map((x, j) =>
+                          j === i ? { ...x, itemKeys: [...x.itemKeys, k] } : x,
+                        ),
+                      );
                   }}
                   className="min-h-11 rounded-lg border border-slate-300 px-2 text-sm"
                 >
@@ -874,7 +971,11 @@ function ReportDraftPanel({
                 </select>
               ) : null}
               {canEdit ? (
-                <Button type="button" variant="ghost" onClick={() => setChanges(changes.filter((_, j) => j !== i))}>
+                <Button
+                  type="button"
+                  variant="ghost"
+                  onClick={() => setChanges(changes.filter((_, j) => j !== i))}
+                >
                   Remove this change
                 </Button>
               ) : null}
@@ -882,7 +983,11 @@ function ReportDraftPanel({
           </div>
         ))}
         {canEdit ? (
-          <Button type="button" variant="secondary" onClick={() => setChanges([...changes, { text: "", itemKeys: [] }])}>
+          <Button
+            type="button"
+            variant="secondary"
+            onClick={() => setChanges([...changes, { text: "", itemKeys: [] }])}
+          >
             Add a required change
           </Button>
         ) : null}
@@ -890,7 +995,9 @@ function ReportDraftPanel({
       <ConflictBox problem={problem} onResolve={onResolve}>
         {newer ? (
           <>
-            <p className="text-sm">Outcome: {newer.outcome ? OUTCOME_LABELS[newer.outcome] : "none"}</p>
+            <p className="text-sm">
+              Outcome: {newer.outcome ? OUTCOME_LABELS[newer.outcome] : "none"}
+            </p>
             <div className="prose prose-sm" data-testid="newer-text">
               <Markdown>{newer.summaryMd || "(no summary)"}</Markdown>
             </div>

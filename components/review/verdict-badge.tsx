@@ -15,10 +15,21 @@ export const VERDICT_STYLE: Record<Verdict, { icon: typeof CircleCheck; classNam
 };
 
 /** A verdict: always an icon and words as well as a colour. */
-export function VerdictBadge({ verdict, className }: { verdict: Verdict | null; className?: string }) {
+export function VerdictBadge({
+  verdict,
+  className,
+}: {
+  verdict: Verdict | null;
+  className?: string;
+}) {
   if (!verdict)
     return (
-      <span className={cn("rounded-full border border-dashed border-slate-400 px-2.5 py-0.5 text-sm", className)}>
+      <span
+        className={cn(
+          "rounded-full border border-dashed border-slate-400 px-2.5 py-0.5 text-sm",
+          className,
+        )}
+      >
         No verdict yet
       </span>
     );

@@ -9,6 +9,7 @@ import { demoSystem } from "../../lib/calc/demo-system";
 import { runLoopCheck } from "../../lib/calc/loop-check";
 import { systemSchema, type SystemInput } from "../../lib/validation/system";
 import { CATALOGUE_VERSION } from "../../lib/checklist/catalogue";
+import { buildChecklist } from "../../lib/checklist/build";
 import { CREDENTIAL_KINDS } from "../../lib/credentials";
 import { JOB_STATES, splitFee } from "../../lib/jobs";
 
@@ -73,6 +74,20 @@ function variant(i: number, region: string): SystemInput {
   s.expansionVessel = { ...s.expansionVessel, nominalVolumeL: i % 4 === 2 ? 8 : 18 };
   s.cylinder = { ...s.cylinder, type: i % 2 === 0 ? "unvented" : "vented" };
   return s;
+}
+
+function requestSnapshot(system: ReturnType<typeof systemSchema.parse>) {
+  const check = runLoopCheck(system);
+  const list = buildChecklist(system, check.findings);
+  return {
+    system_snapshot: JSON.stringify(system),
+    loop_check_snapshot: JSON.stringify({
+      worst: check.worst,
+      findings: check.findings,
+      catalogueVersion: list.version,
+      itemKeys: list.items.map((i) => i.key),
+    }),
+  };
 }
 
 const addDays = (d: Date, days: number) => new Date(d.getTime() + days * 86_400_000);
@@ -153,7 +168,13 @@ export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummar
     const verifiedReviewers = reviewerIds.slice(0, 2);
 
     const regions = ["south-west", "wales", "south-east", "yorkshire"];
-    const projectIds: { id: number; owner: number; region: string; collectorType: string }[] = [];
+    const projectIds: {
+      id: number;
+      owner: number;
+      region: string;
+      collectorType: string;
+      system: ReturnType<typeof systemSchema.parse>;
+    }[] = [];
     for (let i = 0; i < 14; i++) {
       const owner = homeownerIds[i % homeownerIds.length]!;
       const region = regions[i % regions.length]!;
@@ -169,7 +190,13 @@ export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummar
         worst_level: check.worst,
         status: i === 13 ? "draft" : "ready",
       });
-      projectIds.push({ id: Number(id), owner, region, collectorType: system.collectors.type });
+      projectIds.push({
+        id: Number(id),
+        owner,
+        region,
+        collectorType: system.collectors.type,
+        system,
+      });
     }
 
     // Requests: one per job state (awarded or cancelled), and the rest open on the board.
@@ -200,6 +227,8 @@ export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummar
           kind === "site_visit" ? "Loft hatch on the landing; scaffold booked. (demo)" : null,
         expires_at: sqlDateTime(addDays(created, 30)),
         created_at: sqlDateTime(created),
+        // What posting keeps: the system and the loop check with its checklist (lib/data/projects.ts).
+        ...requestSnapshot(p.system),
       });
       requests += 1;
       const quoteIds: number[] = [];

@@ -33,6 +33,7 @@ import type {
   ReviewItem,
   ReviewState,
   ReviewWorkspace,
+  ProjectItemRequest,
 } from "@/lib/types/review";
 import {
   addendumSchema,
@@ -113,7 +114,8 @@ function checklistOf(
     worst = snap.worst ?? worstLevel(findings);
   } else {
     const system = systemSchema.safeParse(systemRaw);
-    if (!system.success) return { version: CATALOGUE_VERSION, worst: "ok", findings: [], items: [] };
+    if (!system.success)
+      return { version: CATALOGUE_VERSION, worst: "ok", findings: [], items: [] };
     const check = runLoopCheck(system.data);
     const list = buildChecklist(system.data, check.findings);
     keys = list.items.map((i) => i.key);
@@ -275,16 +277,11 @@ function toItemRequest(r: Record<string, unknown>): ItemRequest {
 
 async function readState(db: Db, ctx: JobContext): Promise<ReviewState> {
   const report = await db("reports").where({ job_id: ctx.jobId }).first();
-  const rows = report
-    ? await db("checklist_answers").where({ report_id: report.id }).select()
-    : [];
+  const rows = report ? await db("checklist_answers").where({ report_id: report.id }).select() : [];
   const answers: Record<string, Answer> = {};
   for (const item of ctx.items) answers[item.key] = blankAnswer(item.key);
   for (const r of rows) answers[String(r.item_key)] = toAnswer(r);
-  const requests = await db("item_requests")
-    .where({ job_id: ctx.jobId })
-    .orderBy("id")
-    .select();
+  const requests = await db("item_requests").where({ job_id: ctx.jobId }).orderBy("id").select();
   return { answers, draft: toDraft(report), itemRequests: requests.map(toItemRequest) };
 }
 
@@ -360,7 +357,10 @@ export async function getReviewState(db: Db, actor: Actor, jobId: number): Promi
 // ---------------------------------------------------------------- writing
 
 /** Lock the job and its draft report for a write; 409 unless the review is under way. */
-async function lockDraft(trx: Db, ctx: JobContext): Promise<{ id: number; row: Record<string, unknown> }> {
+async function lockDraft(
+  trx: Db,
+  ctx: JobContext,
+): Promise<{ id: number; row: Record<string, unknown> }> {
   const job = await trx("jobs").where({ id: ctx.jobId }).forUpdate().first("state");
   if (job.state !== "in_review")
     throw conflict(
@@ -379,7 +379,9 @@ async function lockDraft(trx: Db, ctx: JobContext): Promise<{ id: number; row: R
     report = await trx("reports").where({ job_id: ctx.jobId }).forUpdate().first();
   }
   if (report.status !== "draft")
-    throw conflict("The report is delivered and can no longer be changed. Add an addendum instead.");
+    throw conflict(
+      "The report is delivered and can no longer be changed. Add an addendum instead.",
+    );
   return { id: Number(report.id), row: report };
 }
 
@@ -423,7 +425,11 @@ export async function saveAnswer(
 ): Promise<Answer> {
   const ctx = await reviewContext(db, actor, jobId, "write");
   requireItem(ctx, itemKey);
-  const v = parseInput(answerSchema, input, "The answer was not saved: some details need attention.");
+  const v = parseInput(
+    answerSchema,
+    input,
+    "The answer was not saved: some details need attention.",
+  );
   return db.transaction(async (trx) => {
     const report = await lockDraft(trx, ctx);
     const row = await trx("checklist_answers")
@@ -445,7 +451,8 @@ export async function saveAnswer(
       updated_by: actor.id,
     };
     if (row) await trx("checklist_answers").where({ id: row.id }).update(next);
-    else await trx("checklist_answers").insert({ report_id: report.id, item_key: itemKey, ...next });
+    else
+      await trx("checklist_answers").insert({ report_id: report.id, item_key: itemKey, ...next });
     const saved = await trx("checklist_answers")
       .where({ report_id: report.id, item_key: itemKey })
       .first();
@@ -461,7 +468,11 @@ export async function saveReportDraft(
   input: unknown,
 ): Promise<ReportDraft> {
   const ctx = await reviewContext(db, actor, jobId, "write");
-  const v = parseInput(reportDraftSchema, input, "The report was not saved: some details need attention.");
+  const v = parseInput(
+    reportDraftSchema,
+    input,
+    "The report was not saved: some details need attention.",
+  );
   if (v.requiredChanges) {
     const known = new Set(ctx.items.map((i) => i.key));
     const bad = v.requiredChanges.findIndex((c) => c.itemKeys.some((k) => !known.has(k)));
@@ -516,7 +527,11 @@ async function threadId(trx: Db, ctx: JobContext): Promise<number> {
 
 async function postToThread(trx: Db, ctx: JobContext, senderId: number, body: string) {
   const thread = await threadId(trx, ctx);
-  const [id] = await trx("messages").insert({ thread_id: thread, sender_id: senderId, body_md: body });
+  const [id] = await trx("messages").insert({
+    thread_id: thread,
+    sender_id: senderId,
+    body_md: body,
+  });
   await trx("message_threads").where({ id: thread }).update({ last_message_at: sqlDateTime() });
   return Number(id);
 }
@@ -561,8 +576,8 @@ export async function listItemRequestsForProject(
   db: Db,
   actor: Actor,
   projectId: number,
-): Promise<(ItemRequest & { jobId: number; reviewerName: string; open: boolean })[]> {
-  if (actor.role !== "homeowner") throw forbidden("Only the homeowner answers the reviewer's questions.");
+): Promise<ProjectItemRequest[]> {
+  if (actor.role !== "homeowner") return [];
   const rows = await db("item_requests as i")
     .join("jobs as j", "j.id", "i.job_id")
     .join("requests as q", "q.id", "j.request_id")
@@ -741,7 +756,10 @@ export async function addAddendum(
   const ctx = await reviewContext(db, actor, jobId, "write");
   const v = parseInput(addendumSchema, input, "The addendum needs attention.");
   return db.transaction(async (trx) => {
-    const report = await trx("reports").where({ job_id: ctx.jobId }).forUpdate().first("id", "status");
+    const report = await trx("reports")
+      .where({ job_id: ctx.jobId })
+      .forUpdate()
+      .first("id", "status");
     if (!report || report.status !== "delivered")
       throw conflict("An addendum can only be added once the report is delivered.");
     const [id] = await trx("report_addenda").insert({
@@ -799,14 +817,12 @@ export async function getReport(db: Db, actor: Actor, jobId: number): Promise<Re
     hasChecklist: stored !== null,
     snapshot,
     findings: r.findings_snapshot ? parseJson<Finding[]>(r.findings_snapshot) : ctx.findings,
-    addenda: addenda.map(
-      (a): Addendum => ({
-        id: Number(a.id),
-        bodyMd: a.body_md,
-        authorName: a.display_name,
-        createdAt: String(a.created_at),
-      }),
-    ),
+    addenda: addenda.map((a): Addendum => ({
+      id: Number(a.id),
+      bodyMd: a.body_md,
+      authorName: a.display_name,
+      createdAt: String(a.created_at),
+    })),
     viewer,
   };
 }

@@ -64,7 +64,8 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
   }
   sections.sort(
     (a, b) =>
-      (SECTIONS as readonly string[]).indexOf(a.name) - (SECTIONS as readonly string[]).indexOf(b.name),
+      (SECTIONS as readonly string[]).indexOf(a.name) -
+      (SECTIONS as readonly string[]).indexOf(b.name),
   );
   const price = formatMoney(job.money.amountMinor, job.currency);
   const fields = { jobId };
@@ -227,7 +228,10 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
             Addenda
           </h2>
           {report.addenda.map((a) => (
-            <div key={a.id} className="break-inside-avoid rounded-card border border-slate-200 bg-white p-4">
+            <div
+              key={a.id}
+              className="break-inside-avoid rounded-card border border-slate-200 bg-white p-4"
+            >
               <p className="text-sm text-slate-600">
                 {day(a.createdAt)} · {a.authorName}
               </p>

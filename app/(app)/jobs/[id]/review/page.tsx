@@ -55,8 +55,8 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
         <Card>
           <h2 className="text-xl font-bold">Start the review</h2>
           <p className="mt-1">
-            Starting tells the homeowner you are at work; from then on they can no longer cancel
-            for a refund. The checklist below is the one made when the request was posted.
+            Starting tells the homeowner you are at work; from then on they can no longer cancel for
+            a refund. The checklist below is the one made when the request was posted.
           </p>
           {user.role === "reviewer" ? (
             <ActionForm
@@ -79,7 +79,9 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
         </Card>
       ) : null}
       {user.role === "admin" ? (
-        <p className="rounded-lg bg-level-note-bg p-3">You are reading this review as an admin; nothing here can be changed.</p>
+        <p className="rounded-lg bg-level-note-bg p-3">
+          You are reading this review as an admin; nothing here can be changed.
+        </p>
       ) : null}
       <ReviewWorkspace initial={ws} canEdit={canEdit} />
       <Cautions compact />

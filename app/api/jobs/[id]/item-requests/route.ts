@@ -8,7 +8,10 @@ export async function POST(req: Request, ctx: { params: Promise<{ id: string }> 
   return jsonRoute(async () => {
     const user = await requireRole("reviewer", "admin");
     const jobId = await jobIdOf(ctx);
-    const body = await jsonBody(req, '{ "itemKey": "vessel-rating", "kind": "photo", "questionMd": "…" }');
+    const body = await jsonBody(
+      req,
+      '{ "itemKey": "vessel-rating", "kind": "photo", "questionMd": "…" }',
+    );
     return askForItem(db(), user, jobId, body);
   }, 201);
 }
