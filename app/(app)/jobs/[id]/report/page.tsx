@@ -244,6 +244,16 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
       ) : null}
 
       <div className="no-print space-y-4">
+        {job.state === "released" || job.state === "partially_refunded" ? (
+          <p role="status" className="rounded-lg bg-level-ok-bg p-3 font-semibold">
+            ✓ The payment is released to {report.reviewerName}.
+          </p>
+        ) : null}
+        {job.state === "disputed" ? (
+          <p role="status" className="rounded-lg bg-level-note-bg p-3 font-semibold">
+            A dispute is open: the payment stays held while the Loopwright team settles it.
+          </p>
+        ) : null}
         {job.actions.includes("release") ? (
           <Card>
             <h2 className="text-xl font-bold">Happy with the report?</h2>
