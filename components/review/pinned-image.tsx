@@ -45,7 +45,7 @@ export function PinnedImage({ fileId, alt, pins, highlight, onPick, className }:
           title={p.label}
           aria-label={`Pin ${p.n}: ${p.label}`}
           className={cn(
-            "pointer-events-none absolute flex h-7 w-7 -translate-x-1/2 -translate-y-1/2 items-center justify-center rounded-full border-2 border-white text-sm font-bold text-white shadow print:shadow-none",
+            "pointer-events-none absolute flex h-7 w-7 -translate-x-1/2 -translate-y-1/2 items-center justify-center rounded-full border-2 border-white text-sm font-bold text-white shadow ring-2 ring-slate-900 print:shadow-none",
             !highlight || highlight.includes(p.itemKey) ? "bg-copper-700" : "bg-slate-500",
           )}
           style={{ left: `${p.x * 100}%`, top: `${p.y * 100}%` }}

@@ -259,7 +259,7 @@ export function ReviewWorkspace({ initial, canEdit }: { initial: Workspace; canE
         <p className="font-semibold" data-testid="progress">
           {done} of {itemKeys.length} items answered
         </p>
-        <ul className="mt-2 flex flex-wrap gap-2 text-sm">
+        <ul className="mt-2 flex gap-2 overflow-x-auto whitespace-nowrap pb-1 text-sm">
           {sections.map((s) => {
             const n = s.items.filter((i) => answered(i.key)).length;
             return (
@@ -298,7 +298,7 @@ export function ReviewWorkspace({ initial, canEdit }: { initial: Workspace; canE
           key={s.name}
           id={`section-${slug(s.name)}`}
           aria-labelledby={`h-${slug(s.name)}`}
-          className="space-y-4"
+          className="scroll-mt-28 space-y-4"
         >
           <h2 id={`h-${slug(s.name)}`} className="text-2xl font-bold">
             {s.name}
@@ -449,7 +449,7 @@ function ItemCard(p: ItemCardProps) {
       id={id}
       data-item={item.key}
       aria-labelledby={`${id}-title`}
-      className="space-y-4 rounded-card border border-slate-200 bg-white p-4 shadow-sm md:p-5"
+      className="scroll-mt-28 space-y-4 rounded-card border border-slate-200 bg-white p-4 shadow-sm md:p-5"
     >
       <header className="flex flex-wrap items-start justify-between gap-2">
         <div>
