@@ -320,7 +320,11 @@ export async function getReviewWorkspace(
   jobId: number,
 ): Promise<ReviewWorkspace> {
   const ctx = await reviewContext(db, actor, jobId, "read");
-  const [state, files] = await Promise.all([readState(db, ctx), projectFiles(db, ctx.projectId)]);
+  const [state, files, report] = await Promise.all([
+    readState(db, ctx),
+    projectFiles(db, ctx.projectId),
+    db("reports").where({ job_id: ctx.jobId }).first("status"),
+  ]);
   const items = ctx.items.map((item) => {
     const areas = new Set<string>(photoGuidanceFor(item.key)?.areas ?? []);
     const photoIds = files.filter((f) => f.itemKeys.includes(item.key)).map((f) => f.id);
@@ -340,6 +344,7 @@ export async function getReviewWorkspace(
     homeownerName: ctx.homeownerName,
     kind: ctx.kind,
     state: ctx.state,
+    reportDelivered: report?.status === "delivered",
     questions: ctx.questions,
     catalogueVersion: ctx.catalogueVersion,
     worst: ctx.worst,

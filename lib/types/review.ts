@@ -103,6 +103,8 @@ export interface ReviewWorkspace {
   homeownerName: string;
   kind: "remote_check" | "site_visit";
   state: string;
+  /** The report is delivered (the workspace is then read-only). */
+  reportDelivered: boolean;
   questions: string;
   catalogueVersion: string;
   worst: Level;

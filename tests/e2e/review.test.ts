@@ -136,9 +136,81 @@ describe("a remote design check from start to release", () => {
     await expect
       .poll(() => page.getByTestId("progress").textContent())
       .toBe(`${total} of ${total} items answered`);
+    // A second tab, opened now, falls behind when the first saves a note.
+    const tabB = await rc.newPage();
+    await tabB.goto(`${baseUrl}/jobs/${job.id}/review`);
+    const scaldB = tabB.locator('article[data-item="scald"]');
+    await scaldB.getByLabel(/^Note/).waitFor();
     const scald = page.locator('article[data-item="scald"]');
     await scald.getByLabel(/^Note/).fill("No **mixing valve** shown at the cylinder outlet.");
     await scald.getByText("✓ Saved").waitFor();
+    await scaldB.getByLabel(/^Note/).fill("Tab B thinks it is fine.");
+    await scaldB.getByText("Newer text from another tab").waitFor();
+    expect(await scaldB.getByTestId("newer-text").innerText()).toContain(
+      "No mixing valve shown at the cylinder outlet.",
+    );
+    await scaldB.screenshot({ path: `${shots}/review-conflict.png` });
+    await scaldB.getByRole("button", { name: "Use the newer text" }).click();
+    expect(await scaldB.getByLabel(/^Note/).inputValue()).toBe(
+      "No **mixing valve** shown at the cylinder outlet.",
+    );
+    await tabB.close();
+
+    // The JSON route says the same: a stale version is 409 with the saved text; bad input 422,
+    // bad JSON 400, another role 403, signed out 401; nothing changes.
+    const reviewerCookie = (await signInHttp(baseUrl, reviewer.email, FIXTURE_PASSWORD)).cookie;
+    const put = (body: string, c = reviewerCookie) =>
+      fetch(`${baseUrl}/api/jobs/${job.id}/answers/scald`, {
+        method: "PUT",
+        headers: { "content-type": "application/json", cookie: c },
+        body,
+      });
+    const stale = await put(JSON.stringify({ noteMd: "Overwrite?", expectedVersion: 1 }));
+    expect(stale.status).toBe(409);
+    const staleBody = (await stale.json()) as { error: string; current: { noteMd: string } };
+    expect(staleBody.current.noteMd).toBe("No **mixing valve** shown at the cylinder outlet.");
+    expect(staleBody.error).toContain("changed in another tab");
+    const bad = await put(JSON.stringify({ verdict: "great", expectedVersion: 2 }));
+    expect(bad.status).toBe(422);
+    expect((await put("{not json")).status).toBe(400);
+    expect(
+      (await put(JSON.stringify({ verdict: "sound", expectedVersion: 2 }), cookie)).status,
+    ).toBe(403);
+    expect((await put(JSON.stringify({ verdict: "sound", expectedVersion: 2 }), "")).status).toBe(
+      401,
+    );
+    const scaldNow = await knex("checklist_answers as a")
+      .join("reports as r", "r.id", "a.report_id")
+      .where({ "r.job_id": job.id, "a.item_key": "scald" })
+      .first("a.note_md", "a.verdict");
+    expect(scaldNow).toEqual({
+      note_md: "No **mixing valve** shown at the cylinder outlet.",
+      verdict: "concern",
+    });
+
+    // Asking the homeowner for a fact about one item; the answer comes back beside it.
+    const vessel = page.locator('article[data-item="vessel-rating"]');
+    await vessel.getByRole("button", { name: "Ask the homeowner for a photo or a fact" }).click();
+    await vessel.getByText("A fact", { exact: true }).click();
+    await vessel
+      .getByLabel("What you need from the homeowner")
+      .fill("What maximum pressure and temperature does the vessel's rating plate give?");
+    await vessel.getByRole("button", { name: "Send the question" }).click();
+    await vessel.getByText("Waiting for the homeowner.").waitFor();
+    const hc = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    hc.setDefaultTimeout(15_000);
+    const home = await hc.newPage();
+    home.on("dialog", (d) => void d.accept());
+    await signIn(home, homeowner.email, `/projects/${project.id}`);
+    const questions = home.locator("#reviewer-questions");
+    await questions.getByText("about “Expansion vessel rating”").waitFor();
+    await questions.getByLabel("Your answer").fill("The plate says 10 bar and 120 °C.");
+    await questions.getByRole("button", { name: "Send the answer" }).click();
+    await questions.getByText("✓ Answered: The plate says 10 bar and 120 °C.").waitFor();
+    await questions.screenshot({ path: `${shots}/project-reviewer-questions.png` });
+    await page.reload();
+    await vessel.getByTestId("item-answer").getByText("10 bar and 120 °C").waitFor();
+
     await scald.getByRole("button", { name: "Pin on the sketch or a photo" }).click();
     await scald.getByLabel("Label for the next pin").fill("Hot outlet");
     const img = scald.locator("img[data-pin-target]");
@@ -187,11 +259,7 @@ describe("a remote design check from start to release", () => {
     await rc.close();
 
     // The homeowner reads the report: outcome first, the pin on the sketch, and releases.
-    const hc = await browser.newContext({ viewport: { width: 1280, height: 900 } });
-    hc.setDefaultTimeout(15_000);
-    const home = await hc.newPage();
-    home.on("dialog", (d) => void d.accept());
-    await signIn(home, homeowner.email, `/jobs/${job.id}/report`);
+    await home.goto(`${baseUrl}/jobs/${job.id}/report`);
     const outcome = home.locator("[data-outcome]");
     await expect.poll(() => outcome.getAttribute("data-outcome")).toBe("fix_before_filling");
     expect(await outcome.textContent()).toContain("Fix before filling");

@@ -32,7 +32,7 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
     if (err instanceof HttpError && err.status === 403) forbidden();
     throw err;
   });
-  const delivered = !["funded", "in_review"].includes(ws.state);
+  const delivered = ws.reportDelivered;
   const canEdit = user.role === "reviewer" && ws.state === "in_review";
   return (
     <div className="space-y-6">
@@ -68,6 +68,18 @@ export default async function ReviewPage({ params }: { params: Promise<{ id: str
               className="mt-3"
             />
           ) : null}
+        </Card>
+      ) : null}
+      {ws.state === "awaiting_payment" ? (
+        <Card>
+          <p className="font-semibold">
+            The review can start once the homeowner has paid into held funds.
+          </p>
+        </Card>
+      ) : null}
+      {!delivered && ["cancelled", "refunded"].includes(ws.state) ? (
+        <Card>
+          <p className="font-semibold">This job was cancelled before the review started.</p>
         </Card>
       ) : null}
       {delivered ? (
