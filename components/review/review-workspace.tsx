@@ -100,10 +100,16 @@ export function ReviewWorkspace({ initial, canEdit }: { initial: Workspace; canE
     setStatus((s) => ({ ...s, [key]: p }));
   }, []);
 
-  /** Queue a save of these fields; saves of one item run one after another. */
+  /**
+   * Queue a save of these fields; saves of one item run one after another. While a conflict is
+   * shown, changes are kept but not sent until the reviewer chooses (`force`).
+   */
   const save = useCallback(
-    (key: string, patch: Record<string, unknown>) => {
-      pending.current[key] = { ...pending.current[key], ...patch };
+    (key: string, patch: Record<string, unknown>, force = false) => {
+      const merged = { ...pending.current[key], ...patch };
+      if (!Object.keys(merged).length) return;
+      pending.current[key] = merged;
+      if (!force && statusRef.current[key]?.status === "conflict") return;
       mark(key, { status: "saving" });
       const url =
         key === DRAFT
@@ -162,6 +168,7 @@ export function ReviewWorkspace({ initial, canEdit }: { initial: Workspace; canE
 
   const saveSoon = (key: string, patch: Record<string, unknown>) => {
     pending.current[key] = { ...pending.current[key], ...patch };
+    if (statusRef.current[key]?.status === "conflict") return;
     mark(key, { status: "saving" });
     clearTimeout(timers.current[key]);
     timers.current[key] = setTimeout(() => save(key, {}), 700);
@@ -182,11 +189,12 @@ export function ReviewWorkspace({ initial, canEdit }: { initial: Workspace; canE
   const resolve = (key: string, keepMine: boolean) => {
     const p = status[key];
     if (!p?.newer) return;
+    clearTimeout(timers.current[key]);
     versions.current[key] = p.newer.version;
     if (keepMine) {
       const mine = key === DRAFT ? draft : local[key]!;
       pending.current[key] = undefined;
-      save(key, { ...mine });
+      save(key, { ...mine }, true);
     } else {
       pending.current[key] = undefined;
       if (key === DRAFT) setDraft(draftFieldsOf(p.newer as ReportDraft));

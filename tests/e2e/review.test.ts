@@ -298,5 +298,5 @@ describe("a remote design check from start to release", () => {
       });
     expect((await knex("jobs").where({ id: job.id }).first("state")).state).toBe("released");
     await hc.close();
-  });
+  }, 120_000);
 });
