@@ -116,9 +116,12 @@ export default async function JobPage({
         >
           The request and messages
         </Link>
-        {["delivered", "disputed", "released", "partially_refunded", "refunded"].includes(
-          job.state,
-        ) ? (
+        {user.role !== "homeowner" && job.reviewStartedAt ? (
+          <Link className="font-semibold text-copper-700 underline" href={`/jobs/${job.id}/review`}>
+            The review workspace
+          </Link>
+        ) : null}
+        {job.deliveredAt ? (
           <Link className="font-semibold text-copper-700 underline" href={`/jobs/${job.id}/report`}>
             Read the report
           </Link>

@@ -62,11 +62,11 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
     if (last?.name === item.section) last.items.push(item);
     else sections.push({ name: item.section, items: [item] });
   }
-  sections.sort(
-    (a, b) =>
-      (SECTIONS as readonly string[]).indexOf(a.name) -
-      (SECTIONS as readonly string[]).indexOf(b.name),
-  );
+  const rank = (name: string) => {
+    const i = (SECTIONS as readonly string[]).indexOf(name);
+    return i < 0 ? SECTIONS.length : i;
+  };
+  sections.sort((a, b) => rank(a.name) - rank(b.name));
   const price = formatMoney(job.money.amountMinor, job.currency);
   const fields = { jobId };
   return (
