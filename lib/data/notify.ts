@@ -8,6 +8,7 @@ import { credentialName } from "@/lib/credentials";
 import { fromSqlDateTime, sqlDateTime } from "@/lib/time";
 import type { Db } from "./db";
 import { enqueueEmail } from "./outbox";
+import { itemTitle } from "@/lib/checklist/item-titles";
 
 type Trx = Db;
 
@@ -214,6 +215,31 @@ export async function notifyReportDelivered(
       url: `${appUrl}/jobs/${j.id}/report`,
     },
     dedupeKey: `job-${j.id}-delivered`,
+  });
+}
+
+/** The reviewer asks the homeowner for a photo or a fact about one checklist item. */
+export async function notifyItemRequested(trx: Trx, appUrl: string, itemRequestId: number) {
+  const q = await trx("item_requests").where({ id: itemRequestId }).first();
+  if (!q) throw new Error(`item request ${itemRequestId} not found`);
+  const j = await jobContext(trx, Number(q.job_id));
+  const project = await trx("jobs as j")
+    .join("requests as r", "r.id", "j.request_id")
+    .where("j.id", q.job_id)
+    .first("r.project_id");
+  return enqueueEmail(trx, {
+    to: { address: j.homeowner_email, userId: j.homeowner_id },
+    template: "item_requested",
+    payload: {
+      name: j.homeowner_name,
+      projectTitle: j.title,
+      reviewerName: j.trading_name ?? j.reviewer_name,
+      kind: q.kind,
+      itemTitle: itemTitle(String(q.item_key)),
+      question: String(q.question_md).replace(/\s+/g, " ").slice(0, 300),
+      url: `${appUrl}/projects/${project.project_id}#reviewer-questions`,
+    },
+    dedupeKey: `item-request-${q.id}`,
   });
 }
 

@@ -30,6 +30,15 @@ export interface TemplatePayloads {
   credential_verified: { name: string; credential: string; expiresOn: string; url: string };
   credential_rejected: { name: string; credential: string; reason: string; url: string };
   credential_expiring: { name: string; credential: string; expiresOn: string; url: string };
+  item_requested: {
+    name: string;
+    projectTitle: string;
+    reviewerName: string;
+    kind: "photo" | "fact";
+    itemTitle: string;
+    question: string;
+    url: string;
+  };
   new_message: {
     name: string;
     senderName: string;

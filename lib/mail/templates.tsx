@@ -181,6 +181,16 @@ const CONTENT: { [K in TemplateName]: (p: TemplatePayloads[K]) => Content } = {
     ],
     action: { label: "Reply", url: p.url },
   }),
+  item_requested: (p) => ({
+    subject: `Your reviewer asks about ${p.projectTitle}`,
+    heading: `${p.reviewerName} needs ${p.kind === "photo" ? "a photo" : "a detail"}`,
+    paragraphs: [
+      `About “${p.itemTitle}”: “${p.question}”`,
+      "Answer on your project page, in words or with a photo you add there. Take roof and collector photos only from a safe place: the ground, a window, the loft or a scaffold.",
+    ],
+    action: { label: "Answer the question", url: p.url },
+    safety: true,
+  }),
 };
 
 const COLORS = { copper: "#9d4f25", slate: "#0f172a", muted: "#475569", sun: "#f8c537" };

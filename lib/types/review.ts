@@ -71,6 +71,14 @@ export interface ItemRequest {
   createdAt: string;
 }
 
+/** A reviewer's question as the homeowner sees it on the project page. */
+export interface ProjectItemRequest extends ItemRequest {
+  jobId: number;
+  reviewerName: string;
+  /** The review is still under way, so the question can be answered. */
+  open: boolean;
+}
+
 /** One checklist item with what the reviewer judges it by. */
 export interface ReviewItem {
   key: string;
@@ -95,6 +103,8 @@ export interface ReviewWorkspace {
   homeownerName: string;
   kind: "remote_check" | "site_visit";
   state: string;
+  /** The report is delivered (the workspace is then read-only). */
+  reportDelivered: boolean;
   questions: string;
   catalogueVersion: string;
   worst: Level;

@@ -1,4 +1,4 @@
-import { z } from "zod";
+import { z } from "@/lib/zod";
 import { OUTCOMES, VERDICTS } from "@/lib/types/review";
 
 /** Longest note on one checklist item, and longest summary. */

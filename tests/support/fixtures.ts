@@ -16,6 +16,7 @@ import bcrypt from "bcryptjs";
 import { demoSystem } from "@/lib/calc/demo-system";
 import { runLoopCheck } from "@/lib/calc/loop-check";
 import { CATALOGUE_VERSION } from "@/lib/checklist/catalogue";
+import { buildChecklist } from "@/lib/checklist/build";
 import { REQUIRED_CREDENTIAL_KINDS } from "@/lib/credentials";
 import { env } from "@/lib/env";
 import {
@@ -212,6 +213,21 @@ export interface RequestOptions {
   createdAt?: Date;
 }
 
+/** What posting a request keeps (lib/data/projects.ts createRequest): the system and the loop check with its checklist keys. */
+export function requestSnapshots(system: System) {
+  const check = runLoopCheck(system);
+  const list = buildChecklist(system, check.findings);
+  return {
+    system_snapshot: JSON.stringify(system),
+    loop_check_snapshot: JSON.stringify({
+      worst: check.worst,
+      findings: check.findings,
+      catalogueVersion: list.version,
+      itemKeys: list.items.map((i) => i.key),
+    }),
+  };
+}
+
 /** A request on the project; an `expired` one has its expiry in the past, the others in the future. */
 export async function makeRequest(
   knex: Knex,
@@ -248,6 +264,7 @@ export async function makeRequest(
     access_notes: kind === "site_visit" ? "Loft hatch on the landing. (test)" : null,
     expires_at: sqlDateTime(expires),
     created_at: sqlDateTime(created),
+    ...requestSnapshots(project.system),
   });
   return {
     id: Number(id),

@@ -116,11 +116,14 @@ export default async function JobPage({
         >
           The request and messages
         </Link>
-        {["delivered", "disputed", "released", "partially_refunded", "refunded"].includes(
-          job.state,
-        ) ? (
+        {user.role !== "homeowner" && job.reviewStartedAt ? (
+          <Link className="font-semibold text-copper-700 underline" href={`/jobs/${job.id}/review`}>
+            The review workspace
+          </Link>
+        ) : null}
+        {job.deliveredAt ? (
           <Link className="font-semibold text-copper-700 underline" href={`/jobs/${job.id}/report`}>
-            The report
+            Read the report
           </Link>
         ) : null}
       </p>
@@ -169,7 +172,7 @@ function NextStep({ job, user }: { job: JobView; user: CurrentUser }) {
           The checklist for this system, with the loop check and the photos beside each item.
         </p>
         <ButtonLink className="mt-3" href={`/jobs/${job.id}/review`}>
-          {job.state === "funded" ? "Open the review workspace" : "Carry on with the review"}
+          {job.state === "funded" ? "Start the review" : "Open the review workspace"}
         </ButtonLink>
       </Card>,
     );

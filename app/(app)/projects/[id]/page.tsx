@@ -18,6 +18,9 @@ import { RequestForm } from "@/components/projects/request-form";
 import { withdrawRequest } from "@/components/projects/actions";
 import { DeleteProjectButton } from "@/components/projects/delete-project-button";
 import { ActionForm } from "@/components/ui/action-form";
+import { listItemRequestsForProject } from "@/lib/data/review";
+import { ReviewerQuestions } from "@/components/review/reviewer-questions";
+import { answerItemRequestAction } from "@/components/review/actions";
 
 export const metadata: Metadata = { title: "Project" };
 
@@ -29,9 +32,10 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
     if (err instanceof HttpError && err.status === 404) notFound();
     throw err;
   });
-  const [files, requests] = await Promise.all([
+  const [files, requests, questions] = await Promise.all([
     listProjectFiles(db(), user, project.id),
     listProjectRequests(db(), user, project.id),
+    listItemRequestsForProject(db(), user, project.id),
   ]);
   const result = runLoopCheck(project.system);
   const complete = systemSchema.safeParse(project.system).success;
@@ -55,6 +59,13 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
           loop check below uses what you have saved.
         </p>
       ) : null}
+
+      <ReviewerQuestions
+        projectId={project.id}
+        questions={questions}
+        photos={files.filter((f) => f.purpose === "photo")}
+        answer={answerItemRequestAction}
+      />
 
       <Card>
         <h2 className="mb-3 text-xl font-bold">Sketch and photos</h2>
