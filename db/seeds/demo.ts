@@ -18,7 +18,6 @@ import { demoSystem } from "../../lib/calc/demo-system";
 import { systemSchema, systemSections, type SystemInput } from "../../lib/validation/system";
 import { CREDENTIAL_KINDS } from "../../lib/credentials";
 import { JOB_STATES, type JobState } from "../../lib/jobs";
-import { CATALOGUE_VERSION } from "../../lib/checklist/catalogue";
 import { env } from "../../lib/env";
 import type { Actor } from "../../lib/data/actor";
 import { createAccount, createAdminAccount } from "../../lib/data/accounts";
@@ -34,11 +33,16 @@ import {
   releaseJob,
   settleDispute,
   startCheckout,
-  startReview,
   syncCheckout,
-  transitionJob,
   type JobServices,
 } from "../../lib/data/jobs";
+import {
+  deliverReport,
+  getReviewWorkspace,
+  saveAnswer,
+  saveReportDraft,
+  startJobReview,
+} from "../../lib/data/review";
 
 export const DEMO_PASSWORD = "demo-loop-2026";
 
@@ -305,23 +309,37 @@ export async function seedDemo(knex: Knex, svc: JobServices = jobServices()): Pr
         return;
       }
       case "in_review":
-        return startReview(trx, who.sol, jobId);
-      case "delivered":
-        await transitionJob(trx, who.sol, jobId, "deliver", async ({ trx: t }) => {
-          await t("reports").insert({
-            job_id: jobId,
-            catalogue_version: CATALOGUE_VERSION,
-            status: "delivered",
-            outcome: "fix_before_filling",
-            summary_md:
-              "The loop is sound apart from the vessel: fit the larger size before filling. (demo)",
-            required_changes: JSON.stringify([
-              "Fit an 18 L solar expansion vessel on a cooling leg.",
-            ]),
-            delivered_at: t.fn.now(3),
+        return startJobReview(trx, who.sol, jobId);
+      case "delivered": {
+        // The reviewer answers every item (the vessel ones as a concern), writes the report
+        // and delivers it: the report is frozen and the homeowner e-mailed.
+        const ws = await getReviewWorkspace(trx, who.sol, jobId);
+        const vessel = ws.items.filter((item) => /vessel/i.test(item.key));
+        for (const item of ws.items) {
+          const concern = vessel.includes(item);
+          await saveAnswer(trx, who.sol, jobId, item.key, {
+            verdict: concern ? "concern" : "sound",
+            noteMd: concern
+              ? "The vessel is on the small side for this collector volume; see the loop check. (demo)"
+              : "Seen on the sketch and photos; as described. (demo)",
+            expectedVersion: ws.answers[item.key]?.version ?? 0,
           });
+        }
+        await saveReportDraft(trx, who.sol, jobId, {
+          outcome: "fix_before_filling",
+          summaryMd:
+            "The loop is sound apart from the vessel: fit the larger size before filling. (demo)",
+          requiredChanges: [
+            {
+              text: "Fit an 18 L solar expansion vessel on a cooling leg. (demo)",
+              itemKeys: vessel.map((item) => item.key),
+            },
+          ],
+          expectedVersion: ws.draft.version,
         });
+        await deliverReport(trx, who.sol, jobId, appUrl);
         return;
+      }
       case "disputed":
         return openDispute(
           trx,
