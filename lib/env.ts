@@ -27,6 +27,18 @@ const baseSchema = z.object({
     .default("loopwright_test"),
   NEXTAUTH_SECRET: z.string().min(16).default("local-dev-secret-not-for-production"),
   CURRENCY: z.string().length(3).toUpperCase().default("GBP"),
+  /** The time zone people's times are typed and shown in (site visits); an IANA name. */
+  APP_TIME_ZONE: z
+    .string()
+    .refine((tz) => {
+      try {
+        new Intl.DateTimeFormat("en-GB", { timeZone: tz });
+        return true;
+      } catch {
+        return false;
+      }
+    }, "an IANA time zone such as Europe/London")
+    .default("Europe/London"),
   PLATFORM_FEE_PERCENT: z.coerce.number().min(0).max(50).default(12),
   REQUEST_EXPIRY_DAYS: z.coerce.number().int().min(1).max(365).default(30),
   DISPUTE_WINDOW_DAYS: z.coerce.number().int().min(1).max(60).default(7),

@@ -35,6 +35,7 @@ import {
   notifyDisputeSettled,
   notifyFundsReleased,
   notifyPaymentReceived,
+  notifyReceipt,
   notifyRefundIssued,
   notifyReviewStarted,
 } from "./notify";
@@ -332,6 +333,7 @@ export async function fundJob(
           key: `job-${jobId}-charge`,
         });
         await notifyPaymentReceived(trx, appUrl, jobId);
+        await notifyReceipt(trx, appUrl, `job-${jobId}-charge`);
       },
       { detail: { paymentIntent: payment.paymentIntentId } },
     );
@@ -424,6 +426,7 @@ async function refund(
     key,
   });
   await notifyRefundIssued(trx, svc.appUrl, job.id, amountMinor);
+  await notifyReceipt(trx, svc.appUrl, key);
 }
 
 // ---------------------------------------------------------------- paying out
@@ -691,7 +694,12 @@ export async function getJob(
     windowStart: r.window_start,
     windowEnd: r.window_end,
     visit: r.visit_at
-      ? { at: String(r.visit_at), state: r.visit_state, note: r.visit_note ?? null }
+      ? {
+          at: String(r.visit_at),
+          state: r.visit_state,
+          note: r.visit_note ?? null,
+          sequence: Number(r.visit_sequence),
+        }
       : null,
     dispute: r.dispute_status
       ? {
@@ -743,6 +751,7 @@ async function jobTimeline(db: Db, jobId: number): Promise<JobTimelineEntry[]> {
       to: (detail.to as JobState | undefined) ?? null,
       by: (r.role as string | null) ?? "system",
       at: String(r.created_at),
+      visitAt: typeof detail.visitAt === "string" ? detail.visitAt : null,
     };
   });
 }

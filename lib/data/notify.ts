@@ -3,9 +3,11 @@
  * e-mail needs and queues it in the caller's transaction. Dedupe keys tie an e-mail to its
  * event, so a repeated event (a webhook delivered twice, a retried action) sends nothing new.
  */
+import { env } from "@/lib/env";
 import { formatMoney } from "@/lib/money";
 import { credentialName } from "@/lib/credentials";
-import { fromSqlDateTime, sqlDateTime } from "@/lib/time";
+import { visitInvitation } from "@/lib/mail/calendar";
+import { formatWhen, fromSqlDateTime, sqlDateTime } from "@/lib/time";
 import type { Db } from "./db";
 import { enqueueEmail } from "./outbox";
 import { itemTitle } from "@/lib/checklist/item-titles";
@@ -442,4 +444,103 @@ export async function notifyNewMessage(
       .update({ last_emailed_at: sqlDateTime(now) });
   }
   return result;
+}
+
+// ---------------------------------------------------------------- site visits
+
+/**
+ * A site visit proposed, confirmed or called off: both sides get an e-mail with the calendar
+ * invitation attached (one UID per job, SEQUENCE = the job's visit_sequence, so every change
+ * replaces the entry their calendar already holds). Call after the visit columns are written.
+ */
+export async function notifyVisitChanged(
+  trx: Trx,
+  appUrl: string,
+  jobId: number,
+  change: "proposed" | "confirmed" | "declined",
+  timeZone: string,
+) {
+  const j = await jobContext(trx, jobId);
+  const v = await trx("jobs")
+    .where({ id: jobId })
+    .first("visit_at", "visit_sequence", "visit_note");
+  const start = fromSqlDateTime(String(v.visit_at));
+  const when = formatWhen(start, timeZone);
+  const url = `${appUrl}/jobs/${j.id}`;
+  const reviewerName = j.trading_name ?? j.reviewer_name;
+  const invitation = visitInvitation({
+    jobId,
+    sequence: Number(v.visit_sequence),
+    start,
+    status:
+      change === "proposed" ? "TENTATIVE" : change === "confirmed" ? "CONFIRMED" : "CANCELLED",
+    title: `Loopwright site visit: ${j.title}`,
+    description: `Site visit by ${reviewerName} for ${j.title}. Details and changes: ${url}\nThe visitor works at height from a scaffold or tower, never a ladder alone; local rules for work at height apply.`,
+    url,
+    organizer: { name: "Loopwright", email: "no-reply@loopwright.test" },
+    attendees: [
+      { name: j.homeowner_name, email: j.homeowner_email },
+      { name: reviewerName, email: j.reviewer_email },
+    ],
+    host: new URL(appUrl).hostname,
+  });
+  const people = [
+    { address: j.homeowner_email, userId: j.homeowner_id, name: j.homeowner_name, reviewer: false },
+    { address: j.reviewer_email, userId: j.reviewer_id, name: j.reviewer_name, reviewer: true },
+  ];
+  for (const p of people) {
+    const base = { to: { address: p.address, userId: p.userId }, attachments: [invitation] };
+    const dedupeKey = `job-${j.id}-visit-${v.visit_sequence}-${p.userId}`;
+    const common = { name: p.name, projectTitle: j.title, when, url };
+    if (change === "proposed")
+      await enqueueEmail(trx, {
+        ...base,
+        template: "visit_proposed",
+        payload: { ...common, mine: p.reviewer, note: v.visit_note ?? null },
+        dedupeKey,
+      });
+    else if (change === "confirmed")
+      await enqueueEmail(trx, { ...base, template: "visit_confirmed", payload: common, dedupeKey });
+    else
+      await enqueueEmail(trx, {
+        ...base,
+        template: "visit_declined",
+        payload: { ...common, note: String(v.visit_note ?? ""), mine: !p.reviewer },
+        dedupeKey,
+      });
+  }
+}
+
+// ---------------------------------------------------------------- receipts
+
+/** The receipt number printed on the page and in the e-mail for one ledger row. */
+export const receiptNumber = (ledgerId: number) => `LW-${String(ledgerId).padStart(6, "0")}`;
+
+/**
+ * A receipt for a charge or a refund, to the homeowner who paid: called in the transaction that
+ * wrote the ledger row (found by its idempotency key). Once per row.
+ */
+export async function notifyReceipt(trx: Trx, appUrl: string, ledgerKey: string) {
+  const l = await trx("ledger_entries")
+    .where({ idempotency_key: ledgerKey })
+    .first("id", "job_id", "kind", "amount_minor", "currency", "created_at");
+  if (!l || (l.kind !== "charge" && l.kind !== "refund")) return "duplicate" as const;
+  const j = await jobContext(trx, Number(l.job_id));
+  return enqueueEmail(trx, {
+    to: { address: j.homeowner_email, userId: j.homeowner_id },
+    template: "receipt",
+    payload: {
+      name: j.homeowner_name,
+      projectTitle: j.title,
+      what: l.kind === "charge" ? "Payment" : "Refund",
+      number: receiptNumber(Number(l.id)),
+      amount: formatMoney(Math.abs(Number(l.amount_minor)), String(l.currency)),
+      date: new Intl.DateTimeFormat("en-GB", {
+        dateStyle: "long",
+        timeZone: env().APP_TIME_ZONE,
+      }).format(fromSqlDateTime(String(l.created_at))),
+      url: `${appUrl}/jobs/${j.id}/receipts/${l.id}`,
+    },
+    dedupeKey: `receipt-${l.id}`,
+  });
 }

@@ -3,6 +3,7 @@
  * the e-mail, so either both are written or neither. The worker (lib/worker/mail.ts) sends.
  */
 import { OPTIONAL_TEMPLATES, type TemplateName, type TemplatePayloads } from "@/lib/mail/kinds";
+import type { MailAttachment } from "@/lib/mail/calendar";
 import { sqlDateTime } from "@/lib/time";
 import type { Actor } from "./actor";
 import type { Db } from "./db";
@@ -14,6 +15,8 @@ export interface EnqueueEmail<K extends TemplateName> {
   payload: TemplatePayloads[K];
   /** Set when one event must never produce two e-mails; a repeat is silently ignored. */
   dedupeKey?: string;
+  /** Files sent with it (a calendar invitation), stored with the row. */
+  attachments?: MailAttachment[];
 }
 
 export type EnqueueResult = "queued" | "duplicate" | "opted_out";
@@ -42,12 +45,13 @@ export async function enqueueEmail<K extends TemplateName>(
     template: e.template,
     payload: JSON.stringify(e.payload),
     dedupe_key: e.dedupeKey ?? null,
+    attachments: e.attachments?.length ? JSON.stringify(e.attachments) : null,
   };
   if (e.dedupeKey) {
     // INSERT IGNORE keeps the transaction alive on a repeated key (a plain insert would abort it).
     const [result] = (await trx.raw(
-      "INSERT IGNORE INTO email_outbox (to_user_id, to_address, template, payload, dedupe_key) VALUES (?, ?, ?, ?, ?)",
-      [row.to_user_id, row.to_address, row.template, row.payload, row.dedupe_key],
+      "INSERT IGNORE INTO email_outbox (to_user_id, to_address, template, payload, dedupe_key, attachments) VALUES (?, ?, ?, ?, ?, ?)",
+      [row.to_user_id, row.to_address, row.template, row.payload, row.dedupe_key, row.attachments],
     )) as [{ affectedRows: number }];
     return result.affectedRows === 1 ? "queued" : "duplicate";
   }
@@ -61,6 +65,7 @@ export interface OutboxRow {
   to_address: string;
   template: string;
   payload: string | Record<string, unknown>;
+  attachments: string | MailAttachment[] | null;
   attempts: number;
 }
 
@@ -94,7 +99,7 @@ async function claimOnce(db: Db, workerId: string, limit: number, now: Date): Pr
     async (trx) => {
       const stale = sqlDateTime(now, -CLAIM_TIMEOUT_MS);
       const rows = (await trx("email_outbox")
-        .select("id", "to_address", "template", "payload", "attempts")
+        .select("id", "to_address", "template", "payload", "attachments", "attempts")
         .where((q) =>
           q.where({ status: "pending" }).andWhere("next_attempt_at", "<=", sqlDateTime(now)),
         )

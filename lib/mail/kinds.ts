@@ -22,8 +22,35 @@ export interface TemplatePayloads {
   };
   refund_issued: { name: string; projectTitle: string; amount: string; url: string };
   payout_account_ready: { name: string; url: string };
-  visit_proposed: { name: string; projectTitle: string; when: string; url: string };
+  /** `mine` when the reader is the reviewer who proposed it. */
+  visit_proposed: {
+    name: string;
+    projectTitle: string;
+    when: string;
+    url: string;
+    mine?: boolean;
+    note?: string | null;
+  };
   visit_confirmed: { name: string; projectTitle: string; when: string; url: string };
+  /** `mine` when the reader is the homeowner who asked. */
+  visit_declined: {
+    name: string;
+    projectTitle: string;
+    when: string;
+    note: string;
+    url: string;
+    mine?: boolean;
+  };
+  receipt: {
+    name: string;
+    projectTitle: string;
+    /** "Payment" or "Refund". */
+    what: string;
+    number: string;
+    amount: string;
+    date: string;
+    url: string;
+  };
   funds_released: { name: string; projectTitle: string; amount: string; url: string };
   dispute_opened: { name: string; projectTitle: string; reason: string; url: string };
   dispute_settled: { name: string; projectTitle: string; resolution: string; url: string };

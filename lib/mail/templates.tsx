@@ -94,7 +94,11 @@ const CONTENT: { [K in TemplateName]: (p: TemplatePayloads[K]) => Content } = {
     subject: `Site visit proposed: ${p.projectTitle}`,
     heading: "A site visit time is proposed",
     paragraphs: [
-      `The reviewer proposes to visit for ${p.projectTitle} on ${p.when}. Confirm it, or ask for another time, on the job page.`,
+      p.mine
+        ? `You proposed to visit for ${p.projectTitle} on ${p.when}. The homeowner is asked to confirm it; the attached invitation is marked tentative until then.`
+        : `The reviewer proposes to visit for ${p.projectTitle} on ${p.when}. Confirm it, or ask for another time, on the job page. The attached invitation is marked tentative until you confirm.`,
+      ...(p.note ? [`Note: “${p.note}”`] : []),
+      "The visitor works at height: a scaffold or tower, never a ladder alone. Local rules for work at height apply.",
     ],
     action: { label: "Open the job", url: p.url },
     safety: true,
@@ -107,6 +111,27 @@ const CONTENT: { [K in TemplateName]: (p: TemplatePayloads[K]) => Content } = {
     ],
     action: { label: "Open the job", url: p.url },
     safety: true,
+  }),
+  visit_declined: (p) => ({
+    subject: `Another site visit time asked for: ${p.projectTitle}`,
+    heading: "Another visit time is needed",
+    paragraphs: [
+      p.mine
+        ? `You asked for another time than ${p.when} for ${p.projectTitle}. The attached update takes the visit off your calendar until a new time is confirmed.`
+        : `The homeowner asks for another time than ${p.when} for ${p.projectTitle}. Propose a new time on the job page. The attached update takes the old time off your calendar.`,
+      `Their note: “${p.note}”`,
+    ],
+    action: { label: "Open the job", url: p.url },
+  }),
+  receipt: (p) => ({
+    subject: `Receipt ${p.number}: ${p.what.toLowerCase()} for ${p.projectTitle}`,
+    heading: `${p.what} receipt ${p.number}`,
+    paragraphs: [
+      `Hello ${p.name}, this is your receipt for ${p.projectTitle}.`,
+      `${p.what}: ${p.amount}, on ${p.date}.`,
+      "The receipt page can be printed or saved as a PDF.",
+    ],
+    action: { label: "Open the receipt", url: p.url },
   }),
   review_started: (p) => ({
     subject: `Review started: ${p.projectTitle}`,

@@ -22,6 +22,8 @@ export interface JobTimelineEntry {
   to: JobState | null;
   by: string;
   at: string;
+  /** For a site-visit entry: the visit's time (UTC DATETIME). */
+  visitAt?: string | null;
 }
 
 export interface JobView {
@@ -46,7 +48,13 @@ export interface JobView {
   closedAt: string | null;
   windowStart: string | null;
   windowEnd: string | null;
-  visit: { at: string; state: "proposed" | "confirmed" | "declined"; note: string | null } | null;
+  visit: {
+    at: string;
+    state: "proposed" | "confirmed" | "declined";
+    note: string | null;
+    /** Raised by every change; a confirmation names the one it saw. */
+    sequence: number;
+  } | null;
   dispute: {
     reason: string;
     status: "open" | "settled";

@@ -7,6 +7,7 @@
  */
 import nodemailer, { type Transporter } from "nodemailer";
 import { isTemplateName, renderEmail } from "@/lib/mail/templates";
+import type { MailAttachment } from "@/lib/mail/calendar";
 import type { Db } from "@/lib/data/db";
 import { claimOutboxBatch, markOutboxFailed, markOutboxSent } from "@/lib/data/outbox";
 
@@ -69,6 +70,9 @@ export async function sendBatch(
         throw Object.assign(new Error(`unknown template ${row.template}`), { responseCode: 554 });
       const payload = typeof row.payload === "string" ? JSON.parse(row.payload) : row.payload;
       const email = renderEmail(row.template, payload as never);
+      const files = (
+        typeof row.attachments === "string" ? JSON.parse(row.attachments) : (row.attachments ?? [])
+      ) as MailAttachment[];
       const info = await transport.sendMail({
         from,
         to: row.to_address,
@@ -76,6 +80,11 @@ export async function sendBatch(
         text: email.text,
         html: email.html,
         messageId: `<outbox-${row.id}@loopwright.mail>`,
+        attachments: files.map((f) => ({
+          filename: f.filename,
+          contentType: f.contentType,
+          content: f.content,
+        })),
       });
       await markOutboxSent(db, row.id, workerId, attempts, info.messageId ?? null);
       result.sent += 1;

@@ -30,6 +30,13 @@ export interface StoredMessage {
   text: string;
   html: string | null;
   links: string[];
+  /** Files sent with it; text kept as UTF-8, anything else as base64. */
+  attachments: {
+    filename: string;
+    contentType: string;
+    content: string;
+    encoding: "utf8" | "base64";
+  }[];
 }
 
 export interface MailFakeOptions {
@@ -104,6 +111,15 @@ export function startMailFake(options: MailFakeOptions = {}) {
             text,
             html,
             links: extractLinks(text, html),
+            attachments: parsed.attachments.map((a) => {
+              const textual = a.contentType.startsWith("text/");
+              return {
+                filename: a.filename ?? "",
+                contentType: a.contentType,
+                content: a.content.toString(textual ? "utf8" : "base64"),
+                encoding: textual ? ("utf8" as const) : ("base64" as const),
+              };
+            }),
           };
           writeFileSync(
             join(dir, `${msg.receivedAt.replace(/[:.]/g, "-")}-${msg.id}.json`),

@@ -24,7 +24,9 @@
  *   GET  /_fake/health
  *   POST /_fake/reset *                 forget everything, clear faults and queued deliveries
  *   POST /_fake/faults *                {"fail":N} next N API calls → 500; {"hang":N} never
- *                                       answered until reset/close; {"dropWebhooks":N}
+ *                                       answered until reset/close; {"hangAfter":N} done and
+ *                                       kept (idempotency record too) but never answered, as
+ *                                       when the answer is lost on the way; {"dropWebhooks":N}
  *   GET  /_fake/events[?type=]          every event with its delivery attempts
  *   POST /_fake/webhooks/flush          {"timeoutMs"?} wait until no delivery is pending
  *   POST /_fake/events/:id/redeliver *  deliver an event again
@@ -82,7 +84,7 @@ interface RequestLogEntry {
   status: number | null;
   idempotencyKey: string | null;
   replayed: boolean;
-  fault: "fail" | "hang" | null;
+  fault: "fail" | "hang" | "hang_after" | null;
 }
 
 const QS_OPTIONS = { depth: 10, arrayLimit: 1000, parameterLimit: 10_000 } as const;
@@ -131,7 +133,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions = {}): Prom
   if (options.dir) mkdirSync(options.dir, { recursive: true });
   let base = "";
 
-  const faults = { fail: 0, hang: 0 };
+  const faults = { fail: 0, hang: 0, hangAfter: 0 };
   const hanging = new Set<ServerResponse>();
   const requestLog: RequestLogEntry[] = [];
   let requestCounter = 0;
@@ -349,6 +351,14 @@ export async function startPaymentsFake(options: PaymentsFakeOptions = {}): Prom
       save();
     }
     entry.status = status;
+    if (faults.hangAfter > 0) {
+      // The change is made and kept; only the answer never arrives.
+      faults.hangAfter -= 1;
+      entry.fault = "hang_after";
+      hanging.add(res);
+      res.on("close", () => hanging.delete(res));
+      return;
+    }
     sendJson(res, status, payload, headers);
   }
 
@@ -356,6 +366,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions = {}): Prom
     core.state = emptyState();
     faults.fail = 0;
     faults.hang = 0;
+    faults.hangAfter = 0;
     queue.clear();
     for (const r of hanging) r.destroy();
     hanging.clear();
@@ -397,10 +408,11 @@ export async function startPaymentsFake(options: PaymentsFakeOptions = {}): Prom
       if (!hasKey(req)) return keyRefusal(res);
       const body = await readJson(req);
       for (const k of Object.keys(body))
-        if (!["fail", "hang", "dropWebhooks"].includes(k))
+        if (!["fail", "hang", "hangAfter", "dropWebhooks"].includes(k))
           throw new ApiError(400, "invalid_request_error", `Unknown fault: ${k}`);
       if (body.fail !== undefined) faults.fail = count(body.fail, "fail");
       if (body.hang !== undefined) faults.hang = count(body.hang, "hang");
+      if (body.hangAfter !== undefined) faults.hangAfter = count(body.hangAfter, "hangAfter");
       if (body.dropWebhooks !== undefined) queue.drops = count(body.dropWebhooks, "dropWebhooks");
       return sendJson(res, 200, { ...faults, dropWebhooks: queue.drops });
     }

@@ -644,6 +644,7 @@ describe("payments fake through the stripe SDK", () => {
     expect(await (await fetch(`${fake.url}/_fake/faults`)).json()).toEqual({
       fail: 0,
       hang: 0,
+      hangAfter: 0,
       dropWebhooks: 1,
     });
     await onboarded("one@example.test");
@@ -659,6 +660,7 @@ describe("payments fake through the stripe SDK", () => {
     expect(await (await fetch(`${fake.url}/_fake/faults`)).json()).toEqual({
       fail: 0,
       hang: 0,
+      hangAfter: 0,
       dropWebhooks: 0,
     });
   });

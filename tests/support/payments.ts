@@ -1,5 +1,11 @@
 /** Test controls of the payments fake (mocks/payments): reset, faults, events, deliveries. */
+import { createServer } from "node:http";
+import type { AddressInfo } from "node:net";
+import type { Knex } from "knex";
 import Stripe from "stripe";
+import { env } from "@/lib/env";
+import { handlePaymentEvent } from "@/lib/data/payments";
+import { verifyPaymentEvent } from "@/lib/payments/client";
 import type { EventRecord } from "../../mocks/payments/types";
 
 export interface RequestLogEntry {
@@ -9,7 +15,7 @@ export interface RequestLogEntry {
   status: number | null;
   idempotencyKey: string | null;
   replayed: boolean;
-  fault: "fail" | "hang" | null;
+  fault: "fail" | "hang" | "hang_after" | null;
 }
 
 export function paymentsFakeControl(base: string, secretKey: string) {
@@ -36,7 +42,7 @@ export function paymentsFakeControl(base: string, secretKey: string) {
         ...options,
       }),
     reset: () => post("/_fake/reset"),
-    faults: (f: { fail?: number; hang?: number; dropWebhooks?: number }) =>
+    faults: (f: { fail?: number; hang?: number; hangAfter?: number; dropWebhooks?: number }) =>
       post("/_fake/faults", f),
     config: (c: { webhookUrl: string | null }) => post("/_fake/config", c),
     redeliver: (eventId: string) => post(`/_fake/events/${eventId}/redeliver`),
@@ -59,5 +65,51 @@ export function paymentsFakeControl(base: string, secretKey: string) {
         body: new URLSearchParams({ card }),
         redirect: "manual",
       }),
+  };
+}
+
+/**
+ * The app's webhook route, in small, for integration tests: verify the signature with the SDK,
+ * then call the same data function. `close()` takes it down (as an app that stops), and
+ * `start(port)` brings a fresh one up on the same port, with its own database pool.
+ */
+export async function startWebhookReceiver(
+  makeDb: () => Knex,
+  webhookSecret: string,
+  appUrl = "http://app.test",
+  port = 0,
+) {
+  const db = makeDb();
+  const handled: string[] = [];
+  const server = createServer((req, res) => {
+    const chunks: Buffer[] = [];
+    req.on("data", (c: Buffer) => chunks.push(c));
+    req.on("end", async () => {
+      try {
+        const event = verifyPaymentEvent(
+          Buffer.concat(chunks).toString("utf8"),
+          String(req.headers["stripe-signature"] ?? ""),
+          { ...env(), STRIPE_WEBHOOK_SECRET: webhookSecret },
+        );
+        handled.push(await handlePaymentEvent(db, event, appUrl));
+        res.writeHead(200).end("{}");
+      } catch (err) {
+        res
+          .writeHead(err instanceof Stripe.errors.StripeSignatureVerificationError ? 400 : 500)
+          .end();
+      }
+    });
+  });
+  await new Promise<void>((r) => server.listen(port, "127.0.0.1", r));
+  const bound = (server.address() as AddressInfo).port;
+  return {
+    port: bound,
+    url: `http://127.0.0.1:${bound}/webhook`,
+    handled,
+    async close() {
+      server.closeAllConnections();
+      await new Promise((r) => server.close(r));
+      await db.destroy();
+    },
   };
 }

@@ -20,6 +20,12 @@ describe("environment validation", () => {
     expect(e.DB_HOST).toBe("127.0.0.1");
     expect(e.DB_PORT).toBe(3307);
     expect(e.CURRENCY).toBe("GBP");
+    expect(e.APP_TIME_ZONE).toBe("Europe/London");
+  });
+
+  it("refuses a time zone that is not an IANA name", () => {
+    expect(() => parseEnv({ APP_TIME_ZONE: "Middle/Earth" })).toThrow(/APP_TIME_ZONE/);
+    expect(parseEnv({ APP_TIME_ZONE: "Europe/Dublin" }).APP_TIME_ZONE).toBe("Europe/Dublin");
   });
 
   it("names the bad variable", () => {

@@ -5,6 +5,8 @@ import { db } from "@/lib/server/db";
 import { isVerifiedReviewer } from "@/lib/data/reviewers";
 import { ProblemPage } from "@/components/ui/problem-page";
 import { BoardView } from "@/components/board/board-view";
+import { PayoutNotice } from "@/components/quotes/payout-notice";
+import { getPayoutAccount } from "@/lib/data/payments";
 
 export const metadata: Metadata = { title: "Request board" };
 
@@ -27,6 +29,7 @@ export default async function BoardPage() {
         Open requests from homeowners. Open one to see the description, the loop check and the
         photos, then quote or send the homeowner a question.
       </p>
+      <PayoutNotice ready={(await getPayoutAccount(db(), user)).ready} />
       <Suspense fallback={<p role="status">Loading requests…</p>}>
         <BoardView />
       </Suspense>

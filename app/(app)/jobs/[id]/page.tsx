@@ -12,6 +12,8 @@ import { ButtonLink } from "@/components/ui/button";
 import { ActionForm } from "@/components/ui/action-form";
 import { Cautions } from "@/components/ui/caution";
 import { JobStateBadge } from "@/components/jobs/job-state-badge";
+import { SiteVisitCard } from "@/components/jobs/site-visit";
+import { ReceiptsLink, visitTimelineWords } from "@/components/jobs/job-extras";
 import {
   cancelForRefundAction,
   cancelJobAction,
@@ -84,6 +86,7 @@ export default async function JobPage({
       ) : null}
       <p className="text-lg text-slate-700">{STATE_DESCRIPTIONS[viewer][job.state]}</p>
       <NextStep job={job} user={user} />
+      <SiteVisitCard job={job} role={user.role} />
       <div className="grid gap-6 lg:grid-cols-2">
         <Money job={job} viewer={viewer} />
         <Timeline job={job} />
@@ -126,6 +129,7 @@ export default async function JobPage({
             Read the report
           </Link>
         ) : null}
+        <ReceiptsLink job={job} role={user.role} />
       </p>
       <Cautions compact />
     </div>
@@ -352,7 +356,11 @@ function Timeline({ job }: { job: JobView }) {
       <ol className="mt-3 space-y-2">
         {job.timeline.map((t, i) => (
           <li key={i} className="flex flex-wrap justify-between gap-2">
-            <span>{t.to ? STATE_LABELS[t.to] : (ACTION_WORDS[t.action] ?? "Updated")}</span>
+            <span>
+              {t.to
+                ? STATE_LABELS[t.to]
+                : (visitTimelineWords(t) ?? ACTION_WORDS[t.action] ?? "Updated")}
+            </span>
             <time className="whitespace-nowrap text-sm text-slate-600">{day(t.at)}</time>
           </li>
         ))}

@@ -20,6 +20,8 @@ import { QuoteForm } from "@/components/quotes/quote-form";
 import { QuoteTable } from "@/components/quotes/quote-table";
 import { takeBackQuote } from "@/components/quotes/actions";
 import { MessageThread } from "@/components/quotes/message-thread";
+import { PayoutNotice } from "@/components/quotes/payout-notice";
+import { getPayoutAccount } from "@/lib/data/payments";
 
 export const metadata: Metadata = { title: "Request" };
 
@@ -41,6 +43,7 @@ export default async function RequestPage({ params }: { params: Promise<{ id: st
 
 async function ReviewerView({ user, requestId }: { user: CurrentUser; requestId: number }) {
   const r = await getRequestForReviewer(db(), user, requestId).catch(orNotFound);
+  const payout = await getPayoutAccount(db(), user);
   const result = runLoopCheck(r.system);
   return (
     <div className="space-y-6">
@@ -84,6 +87,9 @@ async function ReviewerView({ user, requestId }: { user: CurrentUser; requestId:
           <p className="text-level-ok">The homeowner accepted your quote.</p>
         ) : (
           <>
+            <div className="mb-3">
+              <PayoutNotice ready={payout.ready} />
+            </div>
             <QuoteForm requestId={r.id} siteVisit={r.kind === "site_visit"} current={r.myQuote} />
             {r.myQuote ? (
               <ActionForm
