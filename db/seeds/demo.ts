@@ -10,6 +10,8 @@ import { runLoopCheck } from "../../lib/calc/loop-check";
 import { systemSchema, type SystemInput } from "../../lib/validation/system";
 import { CATALOGUE_VERSION } from "../../lib/checklist/catalogue";
 import { buildChecklist } from "../../lib/checklist/build";
+import { itemTitle } from "../../lib/checklist/item-titles";
+import type { ReportSnapshot } from "../../lib/types/review";
 import { CREDENTIAL_KINDS } from "../../lib/credentials";
 import { JOB_STATES, splitFee } from "../../lib/jobs";
 
@@ -87,6 +89,41 @@ function requestSnapshot(system: ReturnType<typeof systemSchema.parse>) {
       catalogueVersion: list.version,
       itemKeys: list.items.map((i) => i.key),
     }),
+  };
+}
+
+/** A delivered demo report as the workspace freezes it: all sound but the vessel size. */
+function demoReport(system: ReturnType<typeof systemSchema.parse>): ReportSnapshot {
+  const check = runLoopCheck(system);
+  const list = buildChecklist(system, check.findings);
+  return {
+    format: 1,
+    catalogueVersion: list.version,
+    worst: check.worst,
+    outcome: "fix_before_filling",
+    summaryMd:
+      "The loop is sound apart from the vessel: fit the larger size before filling. (demo)",
+    requiredChanges: [
+      {
+        text: "Fit an 18 L solar expansion vessel on a cooling leg. (demo)",
+        itemKeys: ["vessel-size"],
+      },
+    ],
+    items: list.items.map((i) => ({
+      key: i.key,
+      title: itemTitle(i.key),
+      section: i.section,
+      check: i.check,
+      basis: i.basis,
+      verdict: i.key === "vessel-size" ? "concern" : "sound",
+      noteMd:
+        i.key === "vessel-size"
+          ? "The vessel is too small to take the collector's contents as steam. (demo)"
+          : "",
+      pins: [],
+      evidence: i.evidence,
+    })),
+    files: [],
   };
 }
 
@@ -317,19 +354,30 @@ export async function seedDemo(knex: Knex, now = new Date()): Promise<SeedSummar
           });
         }
         if (["in_review", ...(delivered ? [jobState] : [])].includes(jobState)) {
-          await trx("reports").insert({
+          const frozen = delivered ? demoReport(p.system) : null;
+          const [reportId] = await trx("reports").insert({
             job_id: jobId,
             catalogue_version: CATALOGUE_VERSION,
             status: delivered ? "delivered" : "draft",
-            outcome: delivered ? "fix_before_filling" : null,
-            summary_md: delivered
-              ? "The loop is sound apart from the vessel: fit the larger size before filling. (demo)"
-              : null,
-            required_changes: JSON.stringify(
-              delivered ? ["Fit an 18 L solar expansion vessel on a cooling leg."] : [],
-            ),
+            outcome: frozen?.outcome ?? null,
+            summary_md: frozen?.summaryMd ?? null,
+            required_changes: JSON.stringify(frozen?.requiredChanges ?? []),
+            checklist_snapshot: frozen ? JSON.stringify(frozen) : null,
+            findings_snapshot: frozen ? JSON.stringify(runLoopCheck(p.system).findings) : null,
+            snapshot_format: frozen ? frozen.format : null,
             delivered_at: delivered ? sqlDateTime(addDays(now, -2)) : null,
           });
+          if (frozen)
+            await trx("checklist_answers").insert(
+              frozen.items.map((it) => ({
+                report_id: reportId,
+                item_key: it.key,
+                verdict: it.verdict,
+                note_md: it.noteMd,
+                pins: "[]",
+                version: 1,
+              })),
+            );
         }
         if (["disputed", "partially_refunded", "refunded"].includes(jobState)) {
           await trx("disputes").insert({
