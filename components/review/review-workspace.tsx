@@ -655,7 +655,11 @@ function ItemCard(p: ItemCardProps) {
                 />
               </label>
             </div>
-            <p className="text-sm text-slate-600">Tap or click the image where the pin goes.</p>
+            <p className="text-sm text-slate-600">
+              {value.pins.length >= PINS_PER_ITEM_MAX
+                ? `This item has the most pins one item can have (${PINS_PER_ITEM_MAX}); remove one to add another.`
+                : "Tap or click the image where the pin goes."}
+            </p>
             <PinnedImage
               fileId={pinFile}
               alt="The image to pin on"

@@ -180,6 +180,18 @@ describe("the review workspace and the report", () => {
     expect(vessel.evidence.length).toBeGreaterThan(0);
     expect(vessel.evidence[0]!.values.some((v) => v.unit)).toBe(true);
     expect(vessel.evidence[0]!.source).toBeTruthy();
+    // The seeded delivered report reads with its frozen checklist.
+    const deliveredJob = await knex("jobs")
+      .where({ state: "delivered" })
+      .first("id", "homeowner_id");
+    const read = await getReport(
+      knex,
+      { id: Number(deliveredJob.homeowner_id), role: "homeowner" },
+      Number(deliveredJob.id),
+    );
+    expect(read.hasChecklist).toBe(true);
+    expect(read.snapshot.items.find((i) => i.key === "vessel-size")!.verdict).toBe("concern");
+    expect(read.snapshot.requiredChanges[0]!.itemKeys).toEqual(["vessel-size"]);
     await truncateAll(knex);
   });
 
