@@ -311,10 +311,10 @@ export async function seedDemo(knex: Knex, svc: JobServices = jobServices()): Pr
       case "in_review":
         return startJobReview(trx, who.sol, jobId);
       case "delivered": {
-        // The reviewer answers every item (the vessel ones as a concern), writes the report
+        // The reviewer answers every item (the vessel size as a concern), writes the report
         // and delivers it: the report is frozen and the homeowner e-mailed.
         const ws = await getReviewWorkspace(trx, who.sol, jobId);
-        const vessel = ws.items.filter((item) => /vessel/i.test(item.key));
+        const vessel = ws.items.filter((item) => item.key === "vessel-size");
         for (const item of ws.items) {
           const concern = vessel.includes(item);
           await saveAnswer(trx, who.sol, jobId, item.key, {

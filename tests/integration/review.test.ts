@@ -193,7 +193,7 @@ describe("the review workspace and the report", () => {
     expect(read.snapshot.items.find((i) => i.key === "vessel-size")!.verdict).toBe("concern");
     expect(read.snapshot.requiredChanges[0]!.itemKeys).toEqual(["vessel-size"]);
     await truncateAll(knex);
-  });
+  }, 120_000); // the demo seed answers five whole reviews through lib/data
 
   it("the workspace uses the request's snapshot, not the project as it is now", async () => {
     const job = await inReview();
