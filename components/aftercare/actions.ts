@@ -44,10 +44,7 @@ export async function replyToRatingAction(
   });
 }
 
-export async function tagPhotoAction(
-  _prev: ActionState,
-  formData: FormData,
-): Promise<ActionState> {
+export async function tagPhotoAction(_prev: ActionState, formData: FormData): Promise<ActionState> {
   const values = formValues(formData, ["itemKeys"]);
   return runAction({
     roles: ["homeowner"],

@@ -14,7 +14,12 @@ import { fluidSchema, type SystemDraft } from "@/lib/validation/system";
 import { fillPressureBar, finalPressureBar } from "./expansion";
 import type { Finding, FindingKey } from "./findings";
 import { fluidModel } from "./fluid";
-import { FREEZE_MARGIN_K, runLoopCheck, type LoopCheckResult, type PressurePoint } from "./loop-check";
+import {
+  FREEZE_MARGIN_K,
+  runLoopCheck,
+  type LoopCheckResult,
+  type PressurePoint,
+} from "./loop-check";
 import { round } from "./units";
 
 /** Tolerances, each common practice unless a source is named. */
@@ -71,7 +76,8 @@ export interface FirstFillDesign {
 export type ComparisonStatus = "matches" | "differs" | "not_compared";
 
 export interface FirstFillComparison {
-  key: "cold-fill" | "precharge" | "fill-margin" | "hot-pressure" | "glycol" | "freeze-point" | "flow";
+  key:
+    "cold-fill" | "precharge" | "fill-margin" | "hot-pressure" | "glycol" | "freeze-point" | "flow";
   label: string;
   measured: string;
   design: string;
@@ -238,7 +244,12 @@ export function compareFirstFill(r: FirstFillReading, d: FirstFillDesign): First
   });
 
   // Hot pressure at a stated temperature, against the design curve at that temperature.
-  if (r.hotBar !== null && r.hotBar !== undefined && r.hotTempC !== null && r.hotTempC !== undefined) {
+  if (
+    r.hotBar !== null &&
+    r.hotBar !== undefined &&
+    r.hotTempC !== null &&
+    r.hotTempC !== undefined
+  ) {
     const curve = d.pressureCurve;
     const expected = designPressureAt(curve, r.hotTempC);
     const first = curve[0];
@@ -297,8 +308,7 @@ export function compareFirstFill(r: FirstFillReading, d: FirstFillDesign): First
       });
     } else {
       const b = band(r.glycolPercentMass, d.glycolPercentMass, T.glycolPoints);
-      const measuredFreeze =
-        kind === "none" ? null : fluidModel(kind, r.glycolPercentMass).freezeC;
+      const measuredFreeze = kind === "none" ? null : fluidModel(kind, r.glycolPercentMass).freezeC;
       const unprotected =
         measuredFreeze !== null && d.coldNightC !== null && measuredFreeze > d.coldNightC;
       items.push({
@@ -384,7 +394,8 @@ export function compareFirstFill(r: FirstFillReading, d: FirstFillDesign): First
             : b.dir === "high"
               ? "A small temperature difference across the collector, more pump power and noise; usually the pump speed is set higher than needed — turn it down until the meter shows the design flow."
               : "Matches the design.",
-        source: "Design flow from the loop check (Kalogirou 2009 low-flow band; high-flow common practice)",
+        source:
+          "Design flow from the loop check (Kalogirou 2009 low-flow band; high-flow common practice)",
       });
     }
   }

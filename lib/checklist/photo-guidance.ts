@@ -147,7 +147,8 @@ export const PHOTO_GUIDANCE: Readonly<Record<string, PhotoGuidance>> = {
     areas: ["cylinder"],
   },
   "heat-trap": {
-    photo: "The pipes at the cylinder's solar connections, showing whether they drop before rising.",
+    photo:
+      "The pipes at the cylinder's solar connections, showing whether they drop before rising.",
     areas: ["cylinder"],
   },
   unvented: {

@@ -147,9 +147,16 @@ export async function saveFirstFill(
     };
     if (existing) await trx("first_fill_records").where({ id: existing.id }).update(row);
     else await trx("first_fill_records").insert(row);
-    await audit(trx, actor.id, existing ? "first_fill.corrected" : "first_fill.recorded", "job", jobId, {
-      projectId: Number(job.project_id),
-    });
+    await audit(
+      trx,
+      actor.id,
+      existing ? "first_fill.corrected" : "first_fill.recorded",
+      "job",
+      jobId,
+      {
+        projectId: Number(job.project_id),
+      },
+    );
   });
 }
 

@@ -16,7 +16,13 @@ const measured = (min: number, max: number, unit: string, what: string, why: str
 
 const optional = <S extends z.ZodType>(s: S) => z.preprocess(blankToUndefined, s.optional());
 const required = <S extends z.ZodType>(s: S, message: string) =>
-  z.preprocess(blankToUndefined, z.any().refine((v) => v !== undefined, message).pipe(s));
+  z.preprocess(
+    blankToUndefined,
+    z
+      .any()
+      .refine((v) => v !== undefined, message)
+      .pipe(s),
+  );
 
 export const PRESSURE_MAX_BAR = 10;
 

@@ -115,40 +115,57 @@ describe("compareFirstFill", () => {
 
   it("flags a pre-charge that has fallen and one pumped too high, at the loop check's band", () => {
     // Design 1.2 bar: 0.95 is 0.25 low (outside −0.2); 1.75 is 0.55 high (outside +0.5); 1.65 is inside.
-    expect(statusOf(compareFirstFill({ coldFillBar: 1.9, prechargeBar: 0.95 }, design), "precharge")).toBe(
-      "differs",
-    );
-    expect(statusOf(compareFirstFill({ coldFillBar: 2.1, prechargeBar: 1.75 }, design), "precharge")).toBe(
-      "differs",
-    );
-    expect(statusOf(compareFirstFill({ coldFillBar: 2.0, prechargeBar: 1.65 }, design), "precharge")).toBe(
-      "matches",
-    );
+    expect(
+      statusOf(compareFirstFill({ coldFillBar: 1.9, prechargeBar: 0.95 }, design), "precharge"),
+    ).toBe("differs");
+    expect(
+      statusOf(compareFirstFill({ coldFillBar: 2.1, prechargeBar: 1.75 }, design), "precharge"),
+    ).toBe("differs");
+    expect(
+      statusOf(compareFirstFill({ coldFillBar: 2.0, prechargeBar: 1.65 }, design), "precharge"),
+    ).toBe("matches");
     expect(FIRST_FILL_TOLERANCE.prechargeLowBar).toBe(0.2);
   });
 
   it("compares the hot pressure with the curve at the stated temperature, and warns near the relief setting", () => {
     // At 40 °C the curve gives 1.9 + (40 − 15)/(65 − 15) × 0.2 = 2.0 bar (worked by hand).
     expect(designPressureAt(design.pressureCurve, 40)).toBeCloseTo(2.0, 9);
-    const high = compareFirstFill({ coldFillBar: 1.9, prechargeBar: 1.2, hotBar: 2.5, hotTempC: 40 }, design);
+    const high = compareFirstFill(
+      { coldFillBar: 1.9, prechargeBar: 1.2, hotBar: 2.5, hotTempC: 40 },
+      design,
+    );
     const hot = high.items.find((i) => i.key === "hot-pressure")!;
     expect(hot.status).toBe("differs");
     expect(hot.design).toBe("2 bar");
     expect(hot.meaning).toMatch(/vessel is taking less/);
-    const low = compareFirstFill({ coldFillBar: 1.9, prechargeBar: 1.2, hotBar: 1.6, hotTempC: 40 }, design);
-    expect(low.items.find((i) => i.key === "hot-pressure")!.meaning).toMatch(/air still in the loop/);
+    const low = compareFirstFill(
+      { coldFillBar: 1.9, prechargeBar: 1.2, hotBar: 1.6, hotTempC: 40 },
+      design,
+    );
+    expect(low.items.find((i) => i.key === "hot-pressure")!.meaning).toMatch(
+      /air still in the loop/,
+    );
     // Final design pressure for a 6 bar relief valve: 0.9 × 6 = 5.4 bar (EN 12828, from memory).
-    const relief = compareFirstFill({ coldFillBar: 1.9, prechargeBar: 1.2, hotBar: 5.5, hotTempC: 110 }, design);
+    const relief = compareFirstFill(
+      { coldFillBar: 1.9, prechargeBar: 1.2, hotBar: 5.5, hotTempC: 110 },
+      design,
+    );
     expect(relief.items.find((i) => i.key === "hot-pressure")!.meaning).toMatch(/5\.4 bar/);
     // Off the curve: nothing is compared, and the page says where the curve runs.
-    const off = compareFirstFill({ coldFillBar: 1.9, prechargeBar: 1.2, hotBar: 2, hotTempC: 10 }, design);
+    const off = compareFirstFill(
+      { coldFillBar: 1.9, prechargeBar: 1.2, hotBar: 2, hotTempC: 10 },
+      design,
+    );
     expect(off.items.find((i) => i.key === "hot-pressure")!.status).toBe("not_compared");
   });
 
   it("flags a mix diluted below the frost protection the site needs", () => {
     // 30 % propylene glycol freezes at about −12.7 °C (ASHRAE Fundamentals, from memory; Melinder
     // −12.8), above the −17 °C clear night at the collector: a difference whatever the tolerance.
-    const r = compareFirstFill({ coldFillBar: 1.9, prechargeBar: 1.2, glycolPercentMass: 30 }, design);
+    const r = compareFirstFill(
+      { coldFillBar: 1.9, prechargeBar: 1.2, glycolPercentMass: 30 },
+      design,
+    );
     const g = r.items.find((i) => i.key === "glycol")!;
     expect(g.status).toBe("differs");
     expect(g.measured).toMatch(/freezes at -1[23]\.\d °C/);
@@ -157,7 +174,10 @@ describe("compareFirstFill", () => {
     const f = compareFirstFill({ coldFillBar: 1.9, prechargeBar: 1.2, freezePointC: -14 }, design);
     expect(f.items.find((i) => i.key === "freeze-point")!.status).toBe("differs");
     // −25 °C is colder than the design's −20.6 by more than 2 K: stronger than planned.
-    const strong = compareFirstFill({ coldFillBar: 1.9, prechargeBar: 1.2, freezePointC: -25 }, design);
+    const strong = compareFirstFill(
+      { coldFillBar: 1.9, prechargeBar: 1.2, freezePointC: -25 },
+      design,
+    );
     expect(strong.items.find((i) => i.key === "freeze-point")!.meaning).toMatch(/stronger/);
   });
 
