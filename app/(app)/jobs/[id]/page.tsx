@@ -20,6 +20,9 @@ import {
   releaseAction,
   settleAction,
 } from "@/components/jobs/actions";
+import { getJobRating, RATEABLE_STATES } from "@/lib/data/ratings";
+import { FIRST_FILL_STATES } from "@/lib/data/first-fill";
+import { JobAftercare } from "@/components/aftercare/job-aftercare";
 
 export const metadata: Metadata = { title: "Job" };
 
@@ -69,6 +72,7 @@ export default async function JobPage({
   }
   const job = await getJob(db(), user, jobId).catch(orNotFound);
   const viewer = user.role as ViewerRole;
+  const rating = await getJobRating(db(), user, jobId);
   return (
     <div className="space-y-6">
       <div className="flex flex-wrap items-center gap-3">
@@ -84,6 +88,15 @@ export default async function JobPage({
       ) : null}
       <p className="text-lg text-slate-700">{STATE_DESCRIPTIONS[viewer][job.state]}</p>
       <NextStep job={job} user={user} />
+      <JobAftercare
+        jobId={job.id}
+        projectId={job.projectId}
+        role={viewer}
+        reviewerName={job.reviewerName}
+        rateable={RATEABLE_STATES.includes(job.state)}
+        firstFillOpen={FIRST_FILL_STATES.includes(job.state)}
+        rating={rating}
+      />
       <div className="grid gap-6 lg:grid-cols-2">
         <Money job={job} viewer={viewer} />
         <Timeline job={job} />

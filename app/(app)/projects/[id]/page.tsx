@@ -18,6 +18,8 @@ import { RequestForm } from "@/components/projects/request-form";
 import { withdrawRequest } from "@/components/projects/actions";
 import { DeleteProjectButton } from "@/components/projects/delete-project-button";
 import { ActionForm } from "@/components/ui/action-form";
+import { getPhotoGuidance } from "@/lib/data/photo-tags";
+import { PhotoGuidance } from "@/components/aftercare/photo-guidance";
 
 export const metadata: Metadata = { title: "Project" };
 
@@ -29,9 +31,10 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
     if (err instanceof HttpError && err.status === 404) notFound();
     throw err;
   });
-  const [files, requests] = await Promise.all([
+  const [files, requests, guidance] = await Promise.all([
     listProjectFiles(db(), user, project.id),
     listProjectRequests(db(), user, project.id),
+    getPhotoGuidance(db(), user, project.id),
   ]);
   const result = runLoopCheck(project.system);
   const complete = systemSchema.safeParse(project.system).success;
@@ -63,6 +66,8 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
         </p>
         <ProjectFiles projectId={project.id} files={files} />
       </Card>
+
+      <PhotoGuidance projectId={project.id} guidance={guidance} />
 
       <Card>
         <h2 className="mb-3 text-xl font-bold">Review requests</h2>
@@ -142,6 +147,9 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
       <div className="flex flex-wrap items-center justify-between gap-3 text-sm">
         <Link className="underline" href="/dashboard">
           Back to the dashboard
+        </Link>
+        <Link className="underline" href={`/projects/${project.id}/first-fill`}>
+          First-fill record (commissioning)
         </Link>
         <DeleteProjectButton projectId={project.id} />
       </div>
