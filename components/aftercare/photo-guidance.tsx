@@ -28,6 +28,12 @@ export function PhotoGuidance({
     );
   const missing = guidance.items.filter((i) => i.photoIds.length === 0);
   const names = new Map(guidance.photos.map((p) => [p.id, p.caption ?? p.fileName]));
+  const sections: [string, typeof guidance.items][] = [];
+  for (const i of guidance.items) {
+    const last = sections.at(-1);
+    if (last && last[0] === i.section) last[1].push(i);
+    else sections.push([i.section, [i]]);
+  }
   return (
     <Card aria-labelledby="photo-guidance-title">
       <h2 id="photo-guidance-title" className="text-xl font-bold">
@@ -52,40 +58,52 @@ export function PhotoGuidance({
           from the roof edge or a ladder top for a better angle.
         </span>
       </p>
-      <ul className="mt-4 divide-y divide-slate-100" aria-label="Photos each check needs">
-        {guidance.items.map((i) => {
-          const has = i.photoIds.length > 0;
-          return (
-            <li key={i.key} className="flex gap-3 py-3" data-guidance={i.key} data-has-photo={has}>
-              {has ? (
-                <CircleCheck aria-hidden className="mt-1 h-5 w-5 shrink-0 text-level-ok" />
-              ) : (
-                <CircleDashed aria-hidden className="mt-1 h-5 w-5 shrink-0 text-slate-400" />
-              )}
-              <div>
-                <p className="font-semibold">
-                  {i.title}{" "}
-                  <span className="text-sm font-normal text-slate-600">
-                    ·{" "}
-                    {has
-                      ? `photo: ${i.photoIds.map((id) => names.get(id)).join(", ")}`
-                      : "no photo yet"}
-                  </span>
-                </p>
-                <p className="text-sm text-slate-700">
-                  <Camera aria-hidden className="mr-1 inline h-4 w-4" />
-                  {i.photo}
-                </p>
-                {i.fromRoof ? (
-                  <p className="text-sm font-semibold text-copper-700">
-                    Taken at the collector: from the ground, a window, the loft or a guarded
-                    scaffold only.
-                  </p>
-                ) : null}
-              </div>
-            </li>
-          );
-        })}
+      <ul className="mt-4 space-y-4" aria-label="Photos each check needs">
+        {sections.map(([section, items]) => (
+          <li key={section}>
+            <h3 className="font-bold text-slate-800">{section}</h3>
+            <ul className="divide-y divide-slate-100">
+              {items.map((i) => {
+                const has = i.photoIds.length > 0;
+                return (
+                  <li
+                    key={i.key}
+                    className="flex gap-3 py-2.5"
+                    data-guidance={i.key}
+                    data-has-photo={has}
+                  >
+                    {has ? (
+                      <CircleCheck aria-hidden className="mt-1 h-5 w-5 shrink-0 text-level-ok" />
+                    ) : (
+                      <CircleDashed aria-hidden className="mt-1 h-5 w-5 shrink-0 text-slate-400" />
+                    )}
+                    <div>
+                      <p className="font-semibold">
+                        {i.title}{" "}
+                        <span className="text-sm font-normal text-slate-600">
+                          ·{" "}
+                          {has
+                            ? `photo: ${i.photoIds.map((id) => names.get(id)).join(", ")}`
+                            : "no photo yet"}
+                        </span>
+                      </p>
+                      <p className="text-sm text-slate-700">
+                        <Camera aria-hidden className="mr-1 inline h-4 w-4" />
+                        {i.photo}
+                      </p>
+                      {i.fromRoof ? (
+                        <p className="text-sm font-semibold text-copper-700">
+                          Taken at the collector: from the ground, a window, the loft or a guarded
+                          scaffold only.
+                        </p>
+                      ) : null}
+                    </div>
+                  </li>
+                );
+              })}
+            </ul>
+          </li>
+        ))}
       </ul>
       {guidance.photos.length ? (
         <div className="mt-4">

@@ -65,7 +65,7 @@ export async function getFirstFillPage(
     .join("users as u", "u.id", "j.reviewer_id")
     .leftJoin("reviewer_profiles as rp", "rp.user_id", "j.reviewer_id")
     .where("r.project_id", projectId)
-    .whereNotIn("j.state", ["awaiting_payment", "cancelled"])
+    .whereNotIn("j.state", ["awaiting_payment", "cancelled", "refunded"])
     .orderBy("j.id", "desc")
     .select("j.id", "j.state", "j.reviewer_id", "u.display_name", "rp.trading_name");
   if (!owner && actor.role !== "admin") {

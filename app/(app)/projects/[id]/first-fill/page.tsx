@@ -1,7 +1,6 @@
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
-import { ADVISORY_LINE } from "@/lib/calc/findings";
 import { HttpError } from "@/lib/data/errors";
 import { getFirstFillPage } from "@/lib/data/first-fill";
 import { pageUser } from "@/lib/server/auth/session";
@@ -66,7 +65,6 @@ export default async function FirstFillPage({ params }: { params: Promise<{ id: 
       <Cautions compact />
       <footer className="space-y-1 text-sm text-slate-600">
         <p>{TOLERANCE_NOTE}</p>
-        <p>{ADVISORY_LINE}</p>
       </footer>
       <p className="flex flex-wrap gap-4 print:hidden">
         {page.viewer === "homeowner" || page.viewer === "admin" ? (
