@@ -97,14 +97,36 @@ describe("rating and the first-fill record in Chromium", () => {
     await page.screenshot({ path: "tests/e2e/screenshots/first-fill-print.png", fullPage: true });
     await page.emulateMedia({ media: "screen" });
 
-    // The project page: photo guidance and the roof caution.
+    // The project page: photo guidance and the roof caution; tag a photo (a row only: its
+    // thumbnail is not in the file store, which does not matter to the tags).
+    const [photoId] = await knex("attachments").insert({
+      owner_id: job.homeowner.id,
+      project_id: job.project.id,
+      purpose: "photo",
+      file_key: `KE2E${Date.now()}`,
+      file_name: "vessel-plate.jpg",
+      mime_type: "image/jpeg",
+      size_bytes: 1000,
+      caption: "Vessel rating plate",
+      tag: "vessel",
+    });
     await page.goto(`${baseUrl}/projects/${job.project.id}`);
     const guidance = page.getByRole("list", { name: "Photos each check needs" });
     await guidance.waitFor();
-    expect(await page.locator('[data-guidance="vessel-rating"]').innerText()).toMatch(
-      /rating plate/,
-    );
+    const vessel = page.locator('[data-guidance="vessel-rating"]');
+    expect(await vessel.innerText()).toMatch(/rating plate/);
+    expect(await vessel.getAttribute("data-has-photo")).toBe("false");
     expect(await page.getByText("Roof photos: only from a safe place.").count()).toBe(1);
+    const missingBefore = await page.getByTestId("photo-missing-count").innerText();
+    const tags = page.locator(`[data-photo-tags="${photoId}"]`);
+    await tags.getByLabel("Expansion vessel rating").check();
+    await tags.getByRole("button", { name: /Save the checks/ }).click();
+    await tags.getByText("Saved: this photo shows 1 check.").waitFor();
+    await expect.poll(() => vessel.getAttribute("data-has-photo")).toBe("true");
+    const [missing, all] = missingBefore.match(/\d+/g)!.map(Number);
+    expect(await page.getByTestId("photo-missing-count").innerText()).toContain(
+      `${missing! - 1} of ${all}`,
+    );
     await page.screenshot({ path: "tests/e2e/screenshots/photo-guidance.png", fullPage: true });
     await context.close();
 
