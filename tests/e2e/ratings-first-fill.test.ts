@@ -149,5 +149,5 @@ describe("rating and the first-fill record in Chromium", () => {
       fullPage: true,
     });
     await rc.close();
-  });
+  }, 120_000);
 });
