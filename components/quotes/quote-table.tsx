@@ -70,7 +70,18 @@ export function QuoteTable({
     col.accessor((q) => q.rating ?? -1, {
       id: "rating",
       header: "Rating",
-      cell: (c) => (c.row.original.rating ? `${c.row.original.rating.toFixed(1)} / 5` : "—"),
+      cell: (c) =>
+        c.row.original.rating ? (
+          <>
+            {c.row.original.rating.toFixed(1)} / 5
+            <div className="text-sm text-slate-600">
+              from {c.row.original.ratingCount}{" "}
+              {c.row.original.ratingCount === 1 ? "rating" : "ratings"}
+            </div>
+          </>
+        ) : (
+          "No ratings yet"
+        ),
     }),
     col.accessor((q) => q.distanceKm ?? Number.MAX_SAFE_INTEGER, {
       id: "distance",

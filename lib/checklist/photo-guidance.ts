@@ -54,6 +54,11 @@ export const PHOTO_GUIDANCE: Readonly<Record<string, PhotoGuidance>> = {
     photo: "The vent for the high point, with its markings or box.",
     areas: ["collector", "pipework"],
   },
+  "steam-reach": {
+    photo:
+      "The pipe route from the collector to the pump station, with any cooler or intermediate vessel on it.",
+    areas: ["pipework", "pump_station"],
+  },
   "vessel-rating": {
     photo: "The expansion vessel's rating plate (volume, maximum pressure, diaphragm temperature).",
     areas: ["vessel"],
@@ -81,6 +86,19 @@ export const PHOTO_GUIDANCE: Readonly<Record<string, PhotoGuidance>> = {
   },
   "fill-pressure": {
     photo: "The pump station's pressure gauge, readable.",
+    areas: ["pump_station"],
+  },
+  "return-side": {
+    photo:
+      "The pump station from the front: every valve, the check valve and where the vessel connects.",
+    areas: ["pump_station", "vessel"],
+  },
+  "relief-temperature": {
+    photo: "The relief valve's body, with its pressure and temperature markings readable.",
+    areas: ["pump_station"],
+  },
+  "night-pressure": {
+    photo: "The pump station's pressure gauge, read cold early on a winter morning.",
     areas: ["pump_station"],
   },
   "pump-rating": {
@@ -115,6 +133,11 @@ export const PHOTO_GUIDANCE: Readonly<Record<string, PhotoGuidance>> = {
     photo: "The air separator and its rating label.",
     areas: ["pump_station", "pipework"],
   },
+  "pipe-insulation": {
+    photo: "The pipe runs in the roof space and outdoors, with the insulation and its label.",
+    areas: ["pipework"],
+    fromRoof: true,
+  },
   controller: {
     photo: "The controller's label and the screen or manual page for its overheat setting.",
     areas: ["pump_station"],
@@ -123,9 +146,19 @@ export const PHOTO_GUIDANCE: Readonly<Record<string, PhotoGuidance>> = {
     photo: "The cylinder's label and its coil connections, so the solar coil can be identified.",
     areas: ["cylinder"],
   },
+  "heat-trap": {
+    photo:
+      "The pipes at the cylinder's solar connections, showing whether they drop before rising.",
+    areas: ["cylinder"],
+  },
   unvented: {
     photo:
       "The unvented cylinder's safety kit: the relief valves, the tundish and the discharge pipe.",
+    areas: ["cylinder"],
+  },
+  "unvented-cutout": {
+    photo:
+      "The cylinder's label and any overheat thermostat or motorised valve on the solar pipes.",
     areas: ["cylinder"],
   },
   scald: {

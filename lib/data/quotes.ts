@@ -11,6 +11,7 @@ import { parseJson } from "./json";
 import { notifyNewQuote, notifyQuoteAccepted, notifyQuoteDeclined } from "./notify";
 import { isVerifiedReviewer } from "./reviewers";
 import type { QuoteForHomeowner } from "@/lib/types/quotes";
+import { ratingSummaries } from "./ratings";
 
 export type { QuoteForHomeowner } from "@/lib/types/quotes";
 
@@ -109,14 +110,11 @@ export async function listQuotesForHomeowner(
     .where("q.request_id", requestId)
     .whereIn("q.status", ["live", "accepted"])
     .whereNull("p.suspended_at")
-    .select(
-      "q.*",
-      "p.trading_name",
-      "p.centre_lat",
-      "p.centre_lng",
-      "p.years_in_trade",
-      db.raw("(SELECT AVG(stars) FROM ratings WHERE ratee_id = q.reviewer_id) AS rating"),
-    );
+    .select("q.*", "p.trading_name", "p.centre_lat", "p.centre_lng", "p.years_in_trade");
+  const ratings = await ratingSummaries(
+    db,
+    rows.map((q) => Number(q.reviewer_id)),
+  );
   const out: QuoteForHomeowner[] = [];
   for (const q of rows) {
     if (q.status === "live" && !(await isVerifiedReviewer(db, Number(q.reviewer_id)))) continue;
@@ -131,7 +129,8 @@ export async function listQuotesForHomeowner(
       scopeMd: q.scope_md,
       proposedVisitDate: q.proposed_visit_date,
       status: q.status,
-      rating: q.rating === null ? null : Number(q.rating),
+      rating: ratings.get(Number(q.reviewer_id))?.average ?? null,
+      ratingCount: ratings.get(Number(q.reviewer_id))?.count ?? 0,
       distanceKm:
         r.site_lat != null && q.centre_lat != null
           ? Math.round(

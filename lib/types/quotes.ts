@@ -11,7 +11,9 @@ export interface QuoteForHomeowner {
   scopeMd: string;
   proposedVisitDate: string | null;
   status: string;
+  /** The reviewer's average rating (1–5, one decimal) and how many ratings it is from. */
   rating: number | null;
+  ratingCount: number;
   /** From the reviewer's centre to the site, when both are known. */
   distanceKm: number | null;
 }

@@ -7,6 +7,9 @@ import { ProblemPage } from "@/components/ui/problem-page";
 import { BoardView } from "@/components/board/board-view";
 import { PayoutNotice } from "@/components/quotes/payout-notice";
 import { getPayoutAccount } from "@/lib/data/payments";
+import { ratingSummary } from "@/lib/data/ratings";
+import { RatingLine } from "@/components/aftercare/stars";
+import Link from "next/link";
 
 export const metadata: Metadata = { title: "Request board" };
 
@@ -22,9 +25,16 @@ export default async function BoardPage() {
       />
     );
   }
+  const rating = await ratingSummary(db(), user.id);
   return (
     <div className="space-y-4">
       <h1 className="text-3xl font-bold">Request board</h1>
+      <p className="text-sm" data-testid="board-rating">
+        Your rating, as homeowners see it beside your quotes: <RatingLine summary={rating} />{" "}
+        <Link className="underline" href={`/reviewers/${user.id}`}>
+          Your public profile
+        </Link>
+      </p>
       <p className="text-slate-700">
         Open requests from homeowners. Open one to see the description, the loop check and the
         photos, then quote or send the homeowner a question.

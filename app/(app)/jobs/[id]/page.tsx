@@ -22,6 +22,9 @@ import {
   releaseAction,
   settleAction,
 } from "@/components/jobs/actions";
+import { getJobRating, RATEABLE_STATES } from "@/lib/data/ratings";
+import { FIRST_FILL_STATES } from "@/lib/data/first-fill";
+import { JobAftercare } from "@/components/aftercare/job-aftercare";
 
 export const metadata: Metadata = { title: "Job" };
 
@@ -71,6 +74,7 @@ export default async function JobPage({
   }
   const job = await getJob(db(), user, jobId).catch(orNotFound);
   const viewer = user.role as ViewerRole;
+  const rating = await getJobRating(db(), user, jobId);
   return (
     <div className="space-y-6">
       <div className="flex flex-wrap items-center gap-3">
@@ -87,6 +91,15 @@ export default async function JobPage({
       <p className="text-lg text-slate-700">{STATE_DESCRIPTIONS[viewer][job.state]}</p>
       <NextStep job={job} user={user} />
       <SiteVisitCard job={job} role={user.role} />
+      <JobAftercare
+        jobId={job.id}
+        projectId={job.projectId}
+        role={viewer}
+        reviewerName={job.reviewerName}
+        rateable={RATEABLE_STATES.includes(job.state)}
+        firstFillOpen={FIRST_FILL_STATES.includes(job.state)}
+        rating={rating}
+      />
       <div className="grid gap-6 lg:grid-cols-2">
         <Money job={job} viewer={viewer} />
         <Timeline job={job} />

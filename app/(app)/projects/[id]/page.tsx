@@ -21,6 +21,8 @@ import { ActionForm } from "@/components/ui/action-form";
 import { listItemRequestsForProject } from "@/lib/data/review";
 import { ReviewerQuestions } from "@/components/review/reviewer-questions";
 import { answerItemRequestAction } from "@/components/review/actions";
+import { getPhotoGuidance } from "@/lib/data/photo-tags";
+import { PhotoGuidance } from "@/components/aftercare/photo-guidance";
 
 export const metadata: Metadata = { title: "Project" };
 
@@ -32,10 +34,11 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
     if (err instanceof HttpError && err.status === 404) notFound();
     throw err;
   });
-  const [files, requests, questions] = await Promise.all([
+  const [files, requests, questions, guidance] = await Promise.all([
     listProjectFiles(db(), user, project.id),
     listProjectRequests(db(), user, project.id),
     listItemRequestsForProject(db(), user, project.id),
+    getPhotoGuidance(db(), user, project.id),
   ]);
   const result = runLoopCheck(project.system);
   const complete = systemSchema.safeParse(project.system).success;
@@ -74,6 +77,8 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
         </p>
         <ProjectFiles projectId={project.id} files={files} />
       </Card>
+
+      <PhotoGuidance projectId={project.id} guidance={guidance} />
 
       <Card>
         <h2 className="mb-3 text-xl font-bold">Review requests</h2>
@@ -153,6 +158,9 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
       <div className="flex flex-wrap items-center justify-between gap-3 text-sm">
         <Link className="underline" href="/dashboard">
           Back to the dashboard
+        </Link>
+        <Link className="underline" href={`/projects/${project.id}/first-fill`}>
+          First-fill record (commissioning)
         </Link>
         <DeleteProjectButton projectId={project.id} />
       </div>
