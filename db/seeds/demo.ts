@@ -36,6 +36,7 @@ import {
   syncCheckout,
   type JobServices,
 } from "../../lib/data/jobs";
+import { rateReviewer, replyToRating } from "../../lib/data/ratings";
 import {
   deliverReport,
   getReviewWorkspace,
@@ -349,7 +350,12 @@ export async function seedDemo(knex: Knex, svc: JobServices = jobServices()): Pr
           appUrl,
         );
       case "released":
-        return releaseJob(trx, who.owner, jobId, svc);
+        await releaseJob(trx, who.owner, jobId, svc);
+        await rateReviewer(trx, who.owner, jobId, { stars: 5, comment: "Clear and quick. (demo)" });
+        await replyToRating(trx, who.sol, jobId, {
+          replyMd: "Thank you; good luck with the first fill. (demo)",
+        });
+        return;
       case "partially_refunded": {
         const job = await trx("jobs").where({ id: jobId }).first("amount_minor");
         return settleDispute(
