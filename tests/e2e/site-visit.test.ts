@@ -78,7 +78,7 @@ describe("arranging a site visit in Chromium", () => {
     const when = `${day}T10:30`;
 
     const reviewer = await signedIn(job.reviewer.email, `/jobs/${job.id}`);
-    await reviewer.getByRole("heading", { name: "Site visit" }).waitFor();
+    await reviewer.getByRole("heading", { name: "Site visit", exact: true }).waitFor();
     expect(await reviewer.getByTestId("visit-caution").innerText()).toMatch(
       /scaffold or a tower[\s\S]*never from a ladder alone/,
     );
