@@ -431,7 +431,7 @@ export async function notifyVisitChanged(
   trx: Trx,
   appUrl: string,
   jobId: number,
-  change: "proposed" | "confirmed" | "declined",
+  change: "proposed" | "confirmed" | "declined" | "cancelled",
   timeZone: string,
 ) {
   const j = await jobContext(trx, jobId);
@@ -475,6 +475,8 @@ export async function notifyVisitChanged(
       });
     else if (change === "confirmed")
       await enqueueEmail(trx, { ...base, template: "visit_confirmed", payload: common, dedupeKey });
+    else if (change === "cancelled")
+      await enqueueEmail(trx, { ...base, template: "visit_cancelled", payload: common, dedupeKey });
     else
       await enqueueEmail(trx, {
         ...base,
