@@ -7,6 +7,7 @@ const VISIT_WORDS: Record<string, string> = {
   "job.visit_proposed": "Site visit proposed for",
   "job.visit_confirmed": "Site visit confirmed for",
   "job.visit_declined": "Another time asked for instead of",
+  "job.visit_cancelled": "Site visit called off: the job was cancelled",
 };
 
 /** A site-visit timeline entry in words, with the visit's time; null for other entries. */

@@ -42,7 +42,11 @@ export function SiteVisitCard({ job, role }: { job: JobView; role: string }) {
   const open = job.state === "funded" || job.state === "in_review";
   const visit = job.visit;
   const when = visit ? formatWhen(fromSqlDateTime(visit.at), tz) : null;
-  const state = visit ? STATE_WORDS[visit.state] : null;
+  const state = !visit
+    ? null
+    : visit.state === "declined" && (job.state === "cancelled" || job.state === "refunded")
+      ? { icon: CalendarX, words: "Called off: the job was cancelled" }
+      : STATE_WORDS[visit.state];
   const fields = { jobId: job.id, sequence: visit?.sequence ?? 0 };
   return (
     <Card>

@@ -39,6 +39,7 @@ import {
   notifyRefundIssued,
   notifyReviewStarted,
 } from "./notify";
+import { callOffVisit } from "./site-visits";
 import { disputeSchema, settlementSchema } from "@/lib/validation/job";
 import type { JobListItem, JobMoney, JobTimelineEntry, JobView } from "@/lib/types/jobs";
 
@@ -394,6 +395,7 @@ export async function cancelJobWithRefund(
 ): Promise<void> {
   await transitionJob(db, actor, jobId, "cancelForRefund", async ({ trx, job }) => {
     await refund(trx, job, job.amountMinor, "cancel", svc);
+    await callOffVisit(trx, job.id, svc.appUrl);
   });
 }
 

@@ -448,6 +448,9 @@ export async function notifyNewMessage(
 
 // ---------------------------------------------------------------- site visits
 
+/** The bare address of a From line ("Loopwright <no-reply@x>" → "no-reply@x"). */
+const senderAddress = (from: string) => /<([^>]+)>/.exec(from)?.[1] ?? from.trim();
+
 /**
  * A site visit proposed, confirmed or called off: both sides get an e-mail with the calendar
  * invitation attached (one UID per job, SEQUENCE = the job's visit_sequence, so every change
@@ -457,7 +460,7 @@ export async function notifyVisitChanged(
   trx: Trx,
   appUrl: string,
   jobId: number,
-  change: "proposed" | "confirmed" | "declined",
+  change: "proposed" | "confirmed" | "declined" | "cancelled",
   timeZone: string,
 ) {
   const j = await jobContext(trx, jobId);
@@ -477,7 +480,7 @@ export async function notifyVisitChanged(
     title: `Loopwright site visit: ${j.title}`,
     description: `Site visit by ${reviewerName} for ${j.title}. Details and changes: ${url}\nThe visitor works at height from a scaffold or tower, never a ladder alone; local rules for work at height apply.`,
     url,
-    organizer: { name: "Loopwright", email: "no-reply@loopwright.test" },
+    organizer: { name: "Loopwright", email: senderAddress(env().MAIL_FROM) },
     attendees: [
       { name: j.homeowner_name, email: j.homeowner_email },
       { name: reviewerName, email: j.reviewer_email },
@@ -501,6 +504,8 @@ export async function notifyVisitChanged(
       });
     else if (change === "confirmed")
       await enqueueEmail(trx, { ...base, template: "visit_confirmed", payload: common, dedupeKey });
+    else if (change === "cancelled")
+      await enqueueEmail(trx, { ...base, template: "visit_cancelled", payload: common, dedupeKey });
     else
       await enqueueEmail(trx, {
         ...base,

@@ -203,3 +203,26 @@ export async function askForAnotherVisit(
 /** The visit's time for people, in the configured time zone. */
 export const visitWhen = (visitAt: string, timeZone = env().APP_TIME_ZONE) =>
   formatWhen(fromSqlDateTime(visitAt), timeZone);
+
+/**
+ * The job is cancelled while a visit is proposed or booked: called inside the cancelling
+ * transition, it calls the visit off and sends both the cancellation for their calendars.
+ */
+export async function callOffVisit(
+  trx: Db,
+  jobId: number,
+  appUrl: string,
+  timeZone = env().APP_TIME_ZONE,
+): Promise<boolean> {
+  const j = await trx("jobs").where({ id: jobId }).first("visit_state", "visit_sequence");
+  if (j?.visit_state !== "proposed" && j?.visit_state !== "confirmed") return false;
+  const sequence = Number(j.visit_sequence) + 1;
+  await trx("jobs").where({ id: jobId }).update({
+    visit_state: "declined",
+    visit_note: "The job was cancelled.",
+    visit_sequence: sequence,
+  });
+  await audit(trx, null, "job.visit_cancelled", "job", jobId, { sequence });
+  await notifyVisitChanged(trx, appUrl, jobId, "cancelled", timeZone);
+  return true;
+}

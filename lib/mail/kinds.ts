@@ -41,6 +41,7 @@ export interface TemplatePayloads {
     url: string;
     mine?: boolean;
   };
+  visit_cancelled: { name: string; projectTitle: string; when: string; url: string };
   receipt: {
     name: string;
     projectTitle: string;

@@ -123,6 +123,14 @@ const CONTENT: { [K in TemplateName]: (p: TemplatePayloads[K]) => Content } = {
     ],
     action: { label: "Open the job", url: p.url },
   }),
+  visit_cancelled: (p) => ({
+    subject: `Site visit cancelled: ${p.projectTitle}`,
+    heading: "The site visit is off",
+    paragraphs: [
+      `The job for ${p.projectTitle} is cancelled, so the site visit on ${p.when} will not take place. The attached update takes it off your calendar.`,
+    ],
+    action: { label: "Open the job", url: p.url },
+  }),
   receipt: (p) => ({
     subject: `Receipt ${p.number}: ${p.what.toLowerCase()} for ${p.projectTitle}`,
     heading: `${p.what} receipt ${p.number}`,

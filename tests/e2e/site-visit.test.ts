@@ -14,7 +14,15 @@ import { wallTimeIn } from "@/lib/time";
 import { sendBatch } from "@/lib/worker/mail";
 import { launchBrowser } from "../support/browser";
 import { testKnex, truncateAll } from "../support/db";
-import { FIXTURE_PASSWORD, makeJob } from "../support/fixtures";
+import {
+  FIXTURE_PASSWORD,
+  makeHomeowner,
+  makeJob,
+  makeProject,
+  makeRequest,
+  makeReviewer,
+} from "../support/fixtures";
+import { signInHttp } from "../support/session";
 import { MAIL_FROM, mailFake } from "../support/mail";
 
 const baseUrl = inject("baseUrl");
@@ -78,7 +86,7 @@ describe("arranging a site visit in Chromium", () => {
     const when = `${day}T10:30`;
 
     const reviewer = await signedIn(job.reviewer.email, `/jobs/${job.id}`);
-    await reviewer.getByRole("heading", { name: "Site visit" }).waitFor();
+    await reviewer.getByRole("heading", { name: "Site visit", exact: true }).waitFor();
     expect(await reviewer.getByTestId("visit-caution").innerText()).toMatch(
       /scaffold or a tower[\s\S]*never from a ladder alone/,
     );
@@ -129,5 +137,32 @@ describe("arranging a site visit in Chromium", () => {
     await home.getByRole("button", { name: /Print all or save as PDF/ }).waitFor();
     await home.context().close();
     await reviewer.context().close();
+  });
+
+  it("a reviewer without a ready payout account is told beside the quote form and on the board", async () => {
+    const request = await makeRequest(knex, await makeProject(knex, await makeHomeowner(knex)));
+    const notReady = await makeReviewer(knex);
+    await knex("reviewer_profiles")
+      .where({ user_id: notReady.id })
+      .update({ payment_account_id: null, payouts_enabled: false });
+    const ready = await makeReviewer(knex);
+    await knex("reviewer_profiles").where({ user_id: ready.id }).update({ payouts_enabled: true });
+    const html = async (email: string, path: string) => {
+      const { cookie } = await signInHttp(baseUrl, email, FIXTURE_PASSWORD);
+      const res = await fetch(`${baseUrl}${path}`, { headers: { cookie } });
+      expect(res.status).toBe(200);
+      return { text: await res.text(), cookie };
+    };
+    const notice = /payment can only be released to you once your payout account is\s+set up/;
+    for (const path of [`/requests/${request.id}`, "/board"]) {
+      const page = await html(notReady.email, path);
+      expect(page.text).toMatch(notice);
+      expect(page.text).toMatch(/href="\/reviewer\/earnings"[^>]*>Set up your payout account/);
+      expect((await html(ready.email, path)).text).not.toMatch(notice);
+    }
+    // The link opens a real page.
+    const { cookie } = await signInHttp(baseUrl, notReady.email, FIXTURE_PASSWORD);
+    const earnings = await fetch(`${baseUrl}/reviewer/earnings`, { headers: { cookie } });
+    expect(earnings.status).toBe(200);
   });
 });

@@ -5,17 +5,19 @@
  * parsed with ical.js (an independent RFC 5545 parser), and a moved visit keeps its UID with a
  * higher SEQUENCE (RFC 5546 §2.1.4: a higher sequence replaces the earlier version).
  */
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import { afterAll, beforeAll, beforeEach, describe, expect, inject, it } from "vitest";
 import type { Knex } from "knex";
 import ICAL from "ical.js";
 import { askForAnotherVisit, confirmVisit, proposeVisit } from "@/lib/data/site-visits";
-import { getJob } from "@/lib/data/jobs";
+import { cancelJobWithRefund, getJob, jobServices } from "@/lib/data/jobs";
 import { sendBatch } from "@/lib/worker/mail";
 import { wallTimeIn, zonedWallTime } from "@/lib/time";
 import { testKnex, truncateAll } from "../support/db";
 import { makeHomeowner, makeJob, makeReviewer } from "../support/fixtures";
 import { MAIL_FROM, mailFake } from "../support/mail";
 import { refusalOf } from "../support/status";
+import { paymentsFakeControl } from "../support/payments";
+import { TEST_PAYMENT_KEYS, TEST_PORTS } from "../support/fakes";
 
 const APP = "http://app.test";
 const TZ = "Europe/London";
@@ -204,6 +206,39 @@ describe("site visits", () => {
     const row = await knex("jobs").where({ id: job.id }).first("visit_at", "visit_sequence");
     expect(row).toEqual({ visit_at: null, visit_sequence: 0 });
     expect(await knex("email_outbox").count({ n: "*" }).first()).toEqual({ n: 0 });
+  });
+
+  it("cancelling the job for a refund calls a booked visit off in both calendars", async () => {
+    const pay = paymentsFakeControl(inject("paymentsUrl"), TEST_PAYMENT_KEYS.secretKey);
+    await pay.reset();
+    await pay.config({ webhookUrl: null });
+    try {
+      const job = await makeJob(knex, "funded", { kind: "site_visit", priceMinor: 15_000 });
+      const svc = jobServices({ pay: pay.client(), appUrl: APP });
+      const pi = await svc.pay.paymentIntents.create({
+        amount: 15_000,
+        currency: "gbp",
+        payment_method: "pm_card_visa",
+        confirm: true,
+      });
+      await knex("jobs").where({ id: job.id }).update({ payment_intent_id: pi.id });
+      await proposeVisit(knex, job.reviewer, job.id, { at: local(5) }, opts);
+      await confirmVisit(knex, job.homeowner, job.id, { sequence: 1 }, opts);
+      await cancelJobWithRefund(knex, job.homeowner, job.id, svc);
+      await send();
+      for (const who of [job.homeowner.email, job.reviewer.email]) {
+        const c = await invitationFor(who, /Site visit cancelled/);
+        expect(c.ics.method).toBe("CANCEL");
+        expect(c.ics.status).toBe("CANCELLED");
+        expect(c.ics.sequence).toBe(3);
+        expect(c.ics.uid).toBe(`site-visit-${job.id}@app.test`);
+      }
+      expect((await knex("jobs").where({ id: job.id }).first("state")).state).toBe("refunded");
+    } finally {
+      await pay.config({
+        webhookUrl: `http://127.0.0.1:${TEST_PORTS.app}/api/webhooks/payments`,
+      });
+    }
   });
 
   it("a London wall time becomes the right UTC moment on both sides of the clock change", () => {
