@@ -61,7 +61,7 @@ describe("migrations against the real MariaDB", () => {
     expect(await tables()).toEqual([]);
     await knex.migrate.latest();
     expect(await tables()).toEqual(up);
-  });
+  }, 120_000); // every migration up, down and up again: seconds on a quiet machine
 
   it("serves the board query from an index, not a table scan", async () => {
     const [plan] = (await knex.raw(
