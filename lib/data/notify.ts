@@ -39,6 +39,7 @@ async function quoteContext(trx: Trx, quoteId: number) {
       "q.currency",
       "q.decline_reason",
       "r.id as request_id",
+      "r.status as request_status",
       "p.title",
       "h.id as homeowner_id",
       "h.email as homeowner_email",
@@ -124,7 +125,9 @@ export async function notifyQuoteDeclined(trx: Trx, appUrl: string, quoteId: num
       name: q.reviewer_name,
       projectTitle: q.title,
       reason: q.decline_reason,
-      url: `${appUrl}/board`,
+      // Awarded: another quote was accepted; still open: the homeowner declined this one.
+      chosenAnother: q.request_status === "awarded",
+      url: `${appUrl}/requests/${q.request_id}`,
     },
     dedupeKey: `quote-${q.id}-declined`,
   });

@@ -10,7 +10,14 @@ export interface TemplatePayloads {
     url: string;
   };
   quote_accepted: { name: string; projectTitle: string; price: string; url: string };
-  quote_declined: { name: string; projectTitle: string; reason?: string | null; url: string };
+  quote_declined: {
+    name: string;
+    projectTitle: string;
+    reason?: string | null;
+    /** True when the homeowner accepted another quote; otherwise they declined this one. */
+    chosenAnother?: boolean;
+    url: string;
+  };
   payment_received: { name: string; projectTitle: string; amount: string; url: string };
   review_started: { name: string; projectTitle: string; reviewerName: string; url: string };
   report_delivered: {

@@ -59,11 +59,13 @@ const CONTENT: { [K in TemplateName]: (p: TemplatePayloads[K]) => Content } = {
     subject: `Your quote for ${p.projectTitle} was not chosen`,
     heading: "Your quote was not chosen",
     paragraphs: [
-      `Hello ${p.name}, the homeowner chose another quote for ${p.projectTitle}.`,
-      ...(p.reason ? [`Their note: “${p.reason}”`] : []),
-      "New requests arrive on the board every day.",
+      p.chosenAnother
+        ? `Hello ${p.name}, the homeowner chose another quote for ${p.projectTitle}.`
+        : `Hello ${p.name}, the homeowner declined your quote for ${p.projectTitle}.`,
+      ...(p.reason ? [`Their reason: “${p.reason}”`] : []),
+      "Your messages with them stay readable on the request. New requests arrive on the board every day.",
     ],
-    action: { label: "Open the board", url: p.url },
+    action: { label: "See the request", url: p.url },
   }),
   payment_received: (p) => ({
     subject: `Payment held for ${p.projectTitle}`,

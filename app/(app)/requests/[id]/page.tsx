@@ -11,6 +11,7 @@ import {
 } from "@/lib/data/quotes";
 import { runLoopCheck } from "@/lib/calc/loop-check";
 import { regionName } from "@/lib/regions";
+import { labelFor, QUOTE_STATUS_LABELS, REQUEST_STATUS_LABELS, serviceLabel } from "@/lib/labels";
 import { formatMoney } from "@/lib/money";
 import { Card } from "@/components/ui/card";
 import { ActionForm } from "@/components/ui/action-form";
@@ -45,7 +46,7 @@ async function ReviewerView({ user, requestId }: { user: CurrentUser; requestId:
   return (
     <div className="space-y-6">
       <h1 className="text-3xl font-bold">
-        {r.kind === "site_visit" ? "Site visit" : "Remote design check"} · {regionName(r.region)}
+        {serviceLabel(r.kind)} · {regionName(r.region)}
       </h1>
       <Card>
         <p className="font-semibold">
@@ -78,10 +79,28 @@ async function ReviewerView({ user, requestId }: { user: CurrentUser; requestId:
       </Card>
       <Card>
         <h2 className="mb-3 text-xl font-bold">
-          {r.myQuote ? `Your quote (${r.myQuote.status})` : "Quote"}
+          {r.myQuote
+            ? `Your quote (${labelFor(QUOTE_STATUS_LABELS, r.myQuote.status).toLowerCase()})`
+            : "Quote"}
         </h2>
         {r.myQuote?.status === "accepted" ? (
           <p className="text-level-ok">The homeowner accepted your quote.</p>
+        ) : r.myQuote?.status === "declined" ? (
+          <div className="space-y-2" data-testid="quote-declined">
+            <p className="font-semibold">
+              {r.status === "awarded"
+                ? "The homeowner chose another quote."
+                : "The homeowner declined your quote."}
+            </p>
+            {r.myQuote.declineReason ? <p>Their reason: “{r.myQuote.declineReason}”</p> : null}
+            <p className="text-sm text-slate-700">
+              Your messages with them stay below.{" "}
+              <Link className="underline" href="/board">
+                Find other requests on the board
+              </Link>
+              .
+            </p>
+          </div>
         ) : (
           <>
             <QuoteForm requestId={r.id} siteVisit={r.kind === "site_visit"} current={r.myQuote} />
@@ -119,7 +138,7 @@ async function HomeownerView({ user, requestId }: { user: CurrentUser; requestId
         <Link className="underline" href={`/projects/${request.projectId}`}>
           Back to the project
         </Link>{" "}
-        · request {request.status}
+        · {labelFor(REQUEST_STATUS_LABELS, request.status)}
       </p>
       {quotes.length === 0 ? (
         <Card>

@@ -1,0 +1,84 @@
+import { afterAll, beforeAll, beforeEach, describe, expect, it } from "vitest";
+import type { Knex } from "knex";
+import { acceptQuote, declineQuote, getRequestForReviewer, submitQuote } from "@/lib/data/quotes";
+import { listMessages, postMessage } from "@/lib/data/messages";
+import { renderEmail } from "@/lib/mail/templates";
+import { testKnex, truncateAll } from "../support/db";
+import { makeHomeowner, makeProject, makeRequest, makeReviewer } from "../support/fixtures";
+
+const APP = "http://app.test";
+const quote = { pricePounds: 95, turnaroundDays: 3, scopeMd: "Full checklist review." };
+
+async function declinedMail(knex: Knex, userId: number) {
+  const row = await knex("email_outbox")
+    .where({ to_user_id: userId, template: "quote_declined" })
+    .orderBy("id", "desc")
+    .first("payload");
+  const payload = typeof row.payload === "string" ? JSON.parse(row.payload) : row.payload;
+  return renderEmail("quote_declined", payload);
+}
+
+describe("a reviewer whose quote was not chosen, against the real MariaDB", () => {
+  let knex: Knex;
+  beforeAll(() => {
+    knex = testKnex();
+  });
+  beforeEach(async () => {
+    await truncateAll(knex);
+  });
+  afterAll(async () => {
+    await truncateAll(knex);
+    await knex.destroy();
+  });
+
+  it("still opens the request after another quote is accepted, says so, and keeps the messages readable", async () => {
+    const owner = await makeHomeowner(knex);
+    const chosen = await makeReviewer(knex);
+    const other = await makeReviewer(knex);
+    const request = await makeRequest(knex, await makeProject(knex, owner));
+    const chosenQuote = await submitQuote(knex, chosen, request.id, quote, APP);
+    await submitQuote(knex, other, request.id, { ...quote, pricePounds: 120 }, APP);
+    await postMessage(knex, other, request.id, { body: "Is the vessel on the return?" });
+    await acceptQuote(knex, owner, chosenQuote, APP);
+
+    const seen = await getRequestForReviewer(knex, other, request.id);
+    expect(seen.status).toBe("awarded");
+    expect(seen.myQuote?.status).toBe("declined");
+    const messages = await listMessages(knex, other, request.id);
+    expect(messages.map((m) => m.bodyMd)).toEqual(["Is the vessel on the return?"]);
+
+    const mail = await declinedMail(knex, other.id);
+    expect(mail.text).toMatch(/chose another quote/);
+    expect(mail.text).not.toMatch(/Their reason/);
+    expect(mail.text).toContain(`${APP}/requests/${request.id}`);
+  });
+
+  it("tells a reviewer whose quote was declined with a reason that reason, not 'another quote'", async () => {
+    const owner = await makeHomeowner(knex);
+    const reviewer = await makeReviewer(knex);
+    const request = await makeRequest(knex, await makeProject(knex, owner));
+    const q = await submitQuote(knex, reviewer, request.id, quote, APP);
+    await declineQuote(knex, owner, q, "Too far from the site.", APP);
+
+    const seen = await getRequestForReviewer(knex, reviewer, request.id);
+    expect(seen.myQuote).toMatchObject({
+      status: "declined",
+      declineReason: "Too far from the site.",
+    });
+    const mail = await declinedMail(knex, reviewer.id);
+    expect(mail.text).toMatch(/declined your quote/);
+    expect(mail.text).not.toMatch(/another quote/);
+    expect(mail.text).toContain("Too far from the site.");
+  });
+
+  it("still refuses a reviewer who never quoted on a closed request", async () => {
+    const owner = await makeHomeowner(knex);
+    const chosen = await makeReviewer(knex);
+    const stranger = await makeReviewer(knex);
+    const request = await makeRequest(knex, await makeProject(knex, owner));
+    await acceptQuote(knex, owner, await submitQuote(knex, chosen, request.id, quote, APP), APP);
+    await expect(getRequestForReviewer(knex, stranger, request.id)).rejects.toMatchObject({
+      status: 404,
+    });
+  });
+});
