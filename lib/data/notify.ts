@@ -8,6 +8,7 @@ import { credentialName } from "@/lib/credentials";
 import { fromSqlDateTime, sqlDateTime } from "@/lib/time";
 import type { Db } from "./db";
 import { enqueueEmail } from "./outbox";
+import type { TemplatePayloads } from "@/lib/mail/kinds";
 
 type Trx = Db;
 
@@ -301,9 +302,37 @@ async function credentialContext(trx: Trx, credentialId: number) {
   return c;
 }
 
+/** How long a "credential verified" e-mail waits for more verifications to join it. */
+export const CREDENTIAL_BATCH_MS = 2 * 60_000;
+
+/**
+ * A credential verified. Verifications of one reviewer's credentials in the same sitting go
+ * out as one e-mail: the first waits CREDENTIAL_BATCH_MS unsent, and later ones join it.
+ */
 export async function notifyCredentialVerified(trx: Trx, appUrl: string, credentialId: number) {
   const c = await credentialContext(trx, credentialId);
+  const line = { credential: credentialName(c.kind), expiresOn: String(c.expires_on) };
+  const waiting = await trx("email_outbox")
+    .where({ to_user_id: c.user_id, template: "credential_verified", status: "pending" })
+    .andWhere("attempts", 0)
+    .andWhere("next_attempt_at", ">", sqlDateTime(new Date()))
+    .forUpdate()
+    .first("id", "payload");
+  if (waiting) {
+    const payload = (
+      typeof waiting.payload === "string" ? JSON.parse(waiting.payload) : waiting.payload
+    ) as TemplatePayloads["credential_verified"];
+    const listed = [payload, ...(payload.more ?? [])].some(
+      (m) => m.credential === line.credential && m.expiresOn === line.expiresOn,
+    );
+    if (!listed)
+      await trx("email_outbox")
+        .where({ id: waiting.id })
+        .update({ payload: JSON.stringify({ ...payload, more: [...(payload.more ?? []), line] }) });
+    return listed ? "duplicate" : "queued";
+  }
   return enqueueEmail(trx, {
+    delayMs: CREDENTIAL_BATCH_MS,
     to: { address: c.email, userId: c.user_id },
     template: "credential_verified",
     payload: {

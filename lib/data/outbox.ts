@@ -14,6 +14,8 @@ export interface EnqueueEmail<K extends TemplateName> {
   payload: TemplatePayloads[K];
   /** Set when one event must never produce two e-mails; a repeat is silently ignored. */
   dedupeKey?: string;
+  /** Hold the e-mail this long before the worker may send it (so related events can batch). */
+  delayMs?: number;
 }
 
 export type EnqueueResult = "queued" | "duplicate" | "opted_out";
@@ -42,12 +44,20 @@ export async function enqueueEmail<K extends TemplateName>(
     template: e.template,
     payload: JSON.stringify(e.payload),
     dedupe_key: e.dedupeKey ?? null,
+    next_attempt_at: sqlDateTime(new Date(Date.now() + (e.delayMs ?? 0))),
   };
   if (e.dedupeKey) {
     // INSERT IGNORE keeps the transaction alive on a repeated key (a plain insert would abort it).
     const [result] = (await trx.raw(
-      "INSERT IGNORE INTO email_outbox (to_user_id, to_address, template, payload, dedupe_key) VALUES (?, ?, ?, ?, ?)",
-      [row.to_user_id, row.to_address, row.template, row.payload, row.dedupe_key],
+      "INSERT IGNORE INTO email_outbox (to_user_id, to_address, template, payload, dedupe_key, next_attempt_at) VALUES (?, ?, ?, ?, ?, ?)",
+      [
+        row.to_user_id,
+        row.to_address,
+        row.template,
+        row.payload,
+        row.dedupe_key,
+        row.next_attempt_at,
+      ],
     )) as [{ affectedRows: number }];
     return result.affectedRows === 1 ? "queued" : "duplicate";
   }

@@ -34,7 +34,14 @@ export interface TemplatePayloads {
   funds_released: { name: string; projectTitle: string; amount: string; url: string };
   dispute_opened: { name: string; projectTitle: string; reason: string; url: string };
   dispute_settled: { name: string; projectTitle: string; resolution: string; url: string };
-  credential_verified: { name: string; credential: string; expiresOn: string; url: string };
+  credential_verified: {
+    name: string;
+    credential: string;
+    expiresOn: string;
+    url: string;
+    /** Further credentials verified in the same sitting, batched into this one e-mail. */
+    more?: { credential: string; expiresOn: string }[];
+  };
   credential_rejected: { name: string; credential: string; reason: string; url: string };
   credential_expiring: { name: string; credential: string; expiresOn: string; url: string };
   new_message: {

@@ -1,3 +1,4 @@
+import { CREDENTIAL_STATUS_LABELS, plural } from "@/lib/labels";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { pageUser } from "@/lib/server/auth/session";
@@ -72,11 +73,12 @@ export default async function CredentialQueuePage({
           <label className="text-sm font-semibold">
             Status
             <select name="status" defaultValue={query.status} className={inputClass}>
-              {["pending", "verified", "rejected", "expired", "all"].map((s) => (
+              {(["pending", "verified", "rejected", "expired"] as const).map((s) => (
                 <option key={s} value={s}>
-                  {s}
+                  {CREDENTIAL_STATUS_LABELS[s]}
                 </option>
               ))}
+              <option value="all">All</option>
             </select>
           </label>
           <label className="text-sm font-semibold">
@@ -105,7 +107,7 @@ export default async function CredentialQueuePage({
         </form>
       </Card>
       <p className="text-slate-600">
-        {total} credential(s) · page {query.page} of {pages}
+        {plural(total, "credential")} · page {query.page} of {pages}
       </p>
       <div className="overflow-x-auto rounded-card border border-slate-200 bg-white">
         <table className="w-full text-left">
@@ -173,11 +175,17 @@ export default async function CredentialQueuePage({
                   </td>
                   <td className="py-3 pr-3 text-sm">{c.createdAt.slice(0, 16)}</td>
                   <td className="min-w-72 py-3 pr-4">
-                    <CredentialDecision
-                      credentialId={c.id}
-                      expiresOn={c.expiresOn}
-                      label={`${credentialName(c.kind)} of ${c.reviewerName}`}
-                    />
+                    {c.status === "pending" ? (
+                      <CredentialDecision
+                        credentialId={c.id}
+                        expiresOn={c.expiresOn}
+                        label={`${credentialName(c.kind)} of ${c.reviewerName}`}
+                      />
+                    ) : (
+                      <span className="text-sm text-slate-600">
+                        {CREDENTIAL_STATUS_LABELS[c.status]}: no decision waiting
+                      </span>
+                    )}
                   </td>
                 </tr>
               ))
