@@ -1,5 +1,6 @@
 "use client";
 
+import { PHOTO_TAG_LABELS } from "@/lib/labels";
 import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { Upload } from "lucide-react";
@@ -10,15 +11,7 @@ import { useUploadThing } from "@/components/uploads/helpers";
 import { ActionForm } from "@/components/ui/action-form";
 import { deleteFile } from "./actions";
 
-const TAG_LABELS: Record<string, string> = {
-  collector: "Collector",
-  roof: "Roof",
-  pump_station: "Pump station",
-  vessel: "Vessel",
-  cylinder: "Cylinder",
-  pipework: "Pipework",
-  other: "Other",
-};
+const TAG_LABELS = PHOTO_TAG_LABELS;
 const MAX_BYTES = 16 * 1024 * 1024;
 
 function Picker({

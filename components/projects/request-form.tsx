@@ -1,5 +1,6 @@
 "use client";
 
+import { currencySymbol, SERVICE_LABELS } from "@/lib/labels";
 import { useActionState, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field, inputClass } from "@/components/ui/field";
@@ -10,9 +11,11 @@ export interface RequestFormProps {
   projectId: number;
   /** The open request to edit, as form values; absent to post a new one. */
   existing?: { id: number; values: Record<string, string> };
+  /** The configured currency (ISO code), for the budget fields. */
+  currency: string;
 }
 
-export function RequestForm({ projectId, existing }: RequestFormProps) {
+export function RequestForm({ projectId, existing, currency }: RequestFormProps) {
   const [state, action, pending] = useActionState<ProjectActionState, FormData>(
     existing ? editRequest.bind(null, projectId, existing.id) : postRequest.bind(null, projectId),
     { ok: false },
@@ -32,7 +35,7 @@ export function RequestForm({ projectId, existing }: RequestFormProps) {
         <legend className="text-sm font-semibold">Kind of review</legend>
         <div className="mt-2 flex flex-wrap gap-4">
           {[
-            ["remote_check", "Remote design check (sketch and photos)"],
+            ["remote_check", `${SERVICE_LABELS.remote_check} (sketch and photos)`],
             ["site_visit", "Site visit"],
           ].map(([value, label]) => (
             <label key={value} className="flex min-h-11 items-center gap-2">
@@ -67,7 +70,7 @@ export function RequestForm({ projectId, existing }: RequestFormProps) {
         <FormField
           name="budgetMinPounds"
           label="Budget from"
-          unit="£"
+          unit={currencySymbol(currency)}
           type="number"
           min={1}
           defaultValue={v?.budgetMinPounds ?? ""}
@@ -76,7 +79,7 @@ export function RequestForm({ projectId, existing }: RequestFormProps) {
         <FormField
           name="budgetMaxPounds"
           label="Budget up to"
-          unit="£"
+          unit={currencySymbol(currency)}
           type="number"
           min={1}
           defaultValue={v?.budgetMaxPounds ?? ""}

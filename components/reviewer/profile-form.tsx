@@ -1,5 +1,6 @@
 "use client";
 
+import { currencySymbol } from "@/lib/labels";
 import { useActionState } from "react";
 import { REGIONS } from "@/lib/regions";
 import { SPECIALISMS } from "@/lib/validation/reviewer";
@@ -9,7 +10,13 @@ import { Field, inputClass } from "@/components/ui/field";
 import { FormField } from "@/components/ui/form-field";
 import { saveProfile, type FormState } from "./actions";
 
-export function ProfileForm({ profile }: { profile: ReviewerProfile | null }) {
+export function ProfileForm({
+  profile,
+  currency,
+}: {
+  profile: ReviewerProfile | null;
+  currency: string;
+}) {
   const [state, action, pending] = useActionState<FormState, FormData>(saveProfile, { ok: false });
   const v = state.values;
   const val = (k: string, fallback: unknown) =>
@@ -52,7 +59,7 @@ export function ProfileForm({ profile }: { profile: ReviewerProfile | null }) {
         <FormField
           name="hourlyRatePounds"
           label="Hourly rate guide"
-          unit="£"
+          unit={currencySymbol(currency)}
           type="number"
           step="0.01"
           defaultValue={val(

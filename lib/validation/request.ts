@@ -2,12 +2,12 @@ import { z } from "@/lib/zod";
 
 const pounds = z.coerce
   .number({ error: "Enter an amount" })
-  .min(1, "At least £1")
-  .max(5000, "At most £5,000 for a review");
+  .min(1, "At least 1")
+  .max(5000, "At most 5,000 for a review");
 
 export const requestSchema = z
   .object({
-    kind: z.enum(["remote_check", "site_visit"], { error: "Choose the kind of review" }),
+    kind: z.enum(["remote_check", "site_visit"], { error: "Choose the service" }),
     questions: z
       .string()
       .trim()

@@ -5,6 +5,7 @@ import { db } from "@/lib/server/db";
 import { isVerifiedReviewer } from "@/lib/data/reviewers";
 import { ProblemPage } from "@/components/ui/problem-page";
 import { BoardView } from "@/components/board/board-view";
+import { env } from "@/lib/env";
 
 export const metadata: Metadata = { title: "Request board" };
 
@@ -28,7 +29,7 @@ export default async function BoardPage() {
         photos, then quote or send the homeowner a question.
       </p>
       <Suspense fallback={<p role="status">Loading requests…</p>}>
-        <BoardView />
+        <BoardView currency={env().CURRENCY} />
       </Suspense>
     </div>
   );

@@ -11,7 +11,13 @@ import {
 } from "@/lib/data/quotes";
 import { runLoopCheck } from "@/lib/calc/loop-check";
 import { regionName } from "@/lib/regions";
-import { labelFor, QUOTE_STATUS_LABELS, REQUEST_STATUS_LABELS, serviceLabel } from "@/lib/labels";
+import {
+  labelFor,
+  PHOTO_TAG_LABELS,
+  QUOTE_STATUS_LABELS,
+  REQUEST_STATUS_LABELS,
+  serviceLabel,
+} from "@/lib/labels";
 import { formatMoney } from "@/lib/money";
 import { Card } from "@/components/ui/card";
 import { ActionForm } from "@/components/ui/action-form";
@@ -71,7 +77,9 @@ async function ReviewerView({ user, requestId }: { user: CurrentUser; requestId:
               <a className="underline" href={`/api/files/${f.id}`} target="_blank" rel="noreferrer">
                 {f.purpose === "sketch" ? "System sketch" : (f.caption ?? f.fileName)}
               </a>
-              <span className="ml-1 text-sm text-slate-600">{f.tag ?? ""}</span>
+              <span className="ml-1 text-sm text-slate-600">
+                {labelFor(PHOTO_TAG_LABELS, f.tag)}
+              </span>
             </li>
           ))}
           {r.files.length === 0 ? <li>No files uploaded.</li> : null}
@@ -103,7 +111,12 @@ async function ReviewerView({ user, requestId }: { user: CurrentUser; requestId:
           </div>
         ) : (
           <>
-            <QuoteForm requestId={r.id} siteVisit={r.kind === "site_visit"} current={r.myQuote} />
+            <QuoteForm
+              requestId={r.id}
+              siteVisit={r.kind === "site_visit"}
+              current={r.myQuote}
+              currency={r.currency}
+            />
             {r.myQuote ? (
               <ActionForm
                 action={takeBackQuote}
