@@ -96,7 +96,7 @@ describe("the request board in Chromium", () => {
       .getByLabel("What the review covers (Markdown)")
       .fill("**Checklist review** of the sketch and photos, with a written report.");
     await rp.getByRole("button", { name: "Send quote" }).click();
-    await rp.locator("#f-pricePounds-error", { hasText: /At least £10/ }).waitFor();
+    await rp.locator("#f-pricePounds-error", { hasText: /At least 10/ }).waitFor();
     await rp.getByLabel("Price").fill("120");
     await rp.getByRole("button", { name: "Send quote" }).click();
     await rp.getByText("Quote sent.").waitFor();
