@@ -51,7 +51,7 @@ describe("the request board in Chromium", () => {
     await page.locator("[data-board-item]").first().waitFor();
     const open = await knex("requests").where({ status: "open" }).count({ n: "*" });
     expect(await page.locator("[data-board-item]").count()).toBe(Number(open[0]!.n));
-    await page.getByLabel("Kind").selectOption("site_visit");
+    await page.getByLabel("Service").selectOption("site_visit");
     await page.getByRole("button", { name: "Show requests" }).click();
     await page.waitForURL(/kind=site_visit/);
     const sites = await knex("requests")
@@ -65,7 +65,7 @@ describe("the request board in Chromium", () => {
     expect(texts.every((t) => t.includes("Site visit"))).toBe(true);
     // Reloading keeps the filter (it lives in the URL).
     await page.reload();
-    expect(await page.getByLabel("Kind").inputValue()).toBe("site_visit");
+    expect(await page.getByLabel("Service").inputValue()).toBe("site_visit");
     await page.locator("[data-board-item]").first().waitFor();
     await page.screenshot({ path: "tests/e2e/screenshots/board.png", fullPage: true });
     await context.close();
