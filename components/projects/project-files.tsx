@@ -1,6 +1,7 @@
 "use client";
 
 import { PHOTO_TAG_LABELS } from "@/lib/labels";
+import { StepCaution } from "@/components/ui/caution";
 import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { Upload } from "lucide-react";
@@ -143,6 +144,7 @@ export function ProjectFiles({ projectId, files }: { projectId: number; files: P
           onFile={(f) => guard(f) && photo.startUpload([f], { projectId, caption, tag })}
         />
       </div>
+      {tag === "roof" || tag === "collector" ? <StepCaution step="roofPhotos" /> : null}
       <p aria-live="polite" className={message?.ok ? "text-level-ok" : "text-level-stop"}>
         {message?.text ?? ""}
       </p>

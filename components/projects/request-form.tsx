@@ -1,6 +1,7 @@
 "use client";
 
 import { currencySymbol, SERVICE_LABELS } from "@/lib/labels";
+import { StepCaution } from "@/components/ui/caution";
 import { useActionState, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field, inputClass } from "@/components/ui/field";
@@ -86,6 +87,7 @@ export function RequestForm({ projectId, existing, currency }: RequestFormProps)
           errors={e}
         />
       </div>
+      {kind === "site_visit" ? <StepCaution step="siteVisit" /> : null}
       {kind === "site_visit" ? (
         <div className="grid gap-x-4 sm:grid-cols-2">
           <FormField
