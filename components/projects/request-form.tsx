@@ -14,9 +14,11 @@ export interface RequestFormProps {
   existing?: { id: number; values: Record<string, string> };
   /** The configured currency (ISO code), for the budget fields. */
   currency: string;
+  /** The loop check's `stop` findings: posting then asks for the safety acknowledgement. */
+  stops?: { title: string; action: string }[];
 }
 
-export function RequestForm({ projectId, existing, currency }: RequestFormProps) {
+export function RequestForm({ projectId, existing, currency, stops = [] }: RequestFormProps) {
   const [state, action, pending] = useActionState<ProjectActionState, FormData>(
     existing ? editRequest.bind(null, projectId, existing.id) : postRequest.bind(null, projectId),
     { ok: false },
@@ -37,14 +39,14 @@ export function RequestForm({ projectId, existing, currency }: RequestFormProps)
         <div className="mt-2 flex flex-wrap gap-4">
           {[
             ["remote_check", `${SERVICE_LABELS.remote_check} (sketch and photos)`],
-            ["site_visit", "Site visit"],
+            ["site_visit", SERVICE_LABELS.site_visit],
           ].map(([value, label]) => (
             <label key={value} className="flex min-h-11 items-center gap-2">
               <input
                 type="radio"
                 name="kind"
                 value={value}
-                defaultChecked={kind === value}
+                checked={kind === value}
                 onChange={() => setKind(value!)}
                 className="h-5 w-5 accent-copper-600"
               />{" "}
@@ -145,6 +147,46 @@ export function RequestForm({ projectId, existing, currency }: RequestFormProps)
       >
         {state.message ?? ""}
       </p>
+      {stops.length > 0 && !existing ? (
+        <section
+          aria-labelledby="safety-gate-title"
+          data-testid="safety-gate"
+          className="space-y-3 rounded-card border-2 border-level-stop bg-level-stop-bg p-4"
+        >
+          <h3 id="safety-gate-title" className="font-bold text-level-stop">
+            Stop: the loop check found something unsafe as described
+          </h3>
+          <ul className="list-disc space-y-2 pl-5 text-slate-900">
+            {stops.map((s) => (
+              <li key={s.title}>
+                <strong>{s.title}.</strong> {s.action}
+              </li>
+            ))}
+          </ul>
+          <p className="text-slate-900">
+            A reviewer can help you put it right, but until then the loop must not be filled or run.
+            A site visit lets a solar-competent tradesperson see it in place.
+          </p>
+          {kind !== "site_visit" ? (
+            <Button type="button" variant="secondary" onClick={() => setKind("site_visit")}>
+              Ask for a site visit instead
+            </Button>
+          ) : null}
+          <label className="flex items-start gap-3 font-semibold">
+            <input
+              type="checkbox"
+              name="acknowledgeStop"
+              className="mt-1 h-5 w-5 accent-copper-600"
+              aria-describedby="f-acknowledgeStop-error"
+              aria-invalid={e?.acknowledgeStop ? true : undefined}
+            />
+            I have read why, and the loop will not be filled or run until this is resolved.
+          </label>
+          <p id="f-acknowledgeStop-error" className="text-sm text-level-stop">
+            {e?.acknowledgeStop?.[0] ?? ""}
+          </p>
+        </section>
+      ) : null}
       <Button type="submit" disabled={pending}>
         {pending ? "Saving…" : existing ? "Save changes" : "Post the request"}
       </Button>

@@ -200,6 +200,15 @@ export async function createRequest(
     const open = await trx("requests").where({ project_id: projectId, status: "open" }).first("id");
     if (open) throw conflict("This project already has an open request: edit that one instead.");
     const check = runLoopCheck(full.data);
+    if (check.worst === "stop" && !v.acknowledgeStop)
+      throw unprocessable(
+        "The loop check found something that stops the work: read why, and confirm the loop will not be filled or run until it is resolved.",
+        {
+          acknowledgeStop: [
+            "Confirm you have read the stop findings and will not fill or run the loop until they are resolved",
+          ],
+        },
+      );
     const checklist = buildChecklist(full.data, check.findings);
     const [id] = await trx("requests").insert({
       project_id: projectId,
@@ -218,7 +227,10 @@ export async function createRequest(
       }),
       ...requestRow(v),
     });
-    await audit(trx, actor.id, "request.posted", "request", Number(id), { projectId });
+    await audit(trx, actor.id, "request.posted", "request", Number(id), {
+      projectId,
+      ...(check.worst === "stop" ? { acknowledgedStop: true } : {}),
+    });
     return Number(id);
   });
 }

@@ -18,6 +18,14 @@ export const requestSchema = z
     windowStart: z.iso.date().optional().or(z.literal("")),
     windowEnd: z.iso.date().optional().or(z.literal("")),
     accessNotes: z.string().trim().max(2000).optional(),
+    /**
+     * The safety gate: set when the homeowner has read the loop check's stop findings and
+     * acknowledged the loop must not be filled or run until they are resolved.
+     */
+    acknowledgeStop: z.preprocess(
+      (v) => v === "on" || v === "true" || v === true,
+      z.boolean().default(false),
+    ),
     /** Optional site centre for distances on the board; no outside geocoder is used. */
     siteLat: z.preprocess(
       (v) => (v === "" || v === undefined ? undefined : v),

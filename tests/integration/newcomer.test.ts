@@ -3,6 +3,9 @@ import type { Knex } from "knex";
 import { acceptQuote, declineQuote, getRequestForReviewer, submitQuote } from "@/lib/data/quotes";
 import { listMessages, postMessage } from "@/lib/data/messages";
 import { renderEmail } from "@/lib/mail/templates";
+import { createRequest } from "@/lib/data/projects";
+import { demoSystem } from "@/lib/calc/demo-system";
+import { runLoopCheck } from "@/lib/calc/loop-check";
 import { testKnex, truncateAll } from "../support/db";
 import { makeHomeowner, makeProject, makeRequest, makeReviewer } from "../support/fixtures";
 
@@ -80,5 +83,54 @@ describe("a reviewer whose quote was not chosen, against the real MariaDB", () =
     await expect(getRequestForReviewer(knex, stranger, request.id)).rejects.toMatchObject({
       status: 404,
     });
+  });
+});
+
+describe("the safety gate on posting a request when the loop check has a stop", () => {
+  let knex: Knex;
+  beforeAll(() => {
+    knex = testKnex();
+  });
+  afterAll(async () => {
+    await truncateAll(knex);
+    await knex.destroy();
+  });
+
+  const post = {
+    kind: "remote_check",
+    questions: "Is the relief valve right for the pump station?",
+    budgetMinPounds: "60",
+    budgetMaxPounds: "150",
+  };
+
+  it("refuses the post until the homeowner acknowledges, and then records that they did", async () => {
+    await truncateAll(knex);
+    const owner = await makeHomeowner(knex);
+    // A component rated below the relief setting is a stop (tests/unit/loop-check.test.ts).
+    const system = structuredClone(demoSystem);
+    system.pumpStation = { ...system.pumpStation, lowestComponentMaxBar: 4 };
+    expect(runLoopCheck(system).worst).toBe("stop");
+    const project = await makeProject(knex, owner, { system });
+
+    const refused = await createRequest(knex, owner, project.id, post).catch((e: unknown) => e);
+    expect(refused).toMatchObject({ status: 422 });
+    expect(Object.keys((refused as { fieldErrors: object }).fieldErrors)).toEqual([
+      "acknowledgeStop",
+    ]);
+    expect(await knex("requests").where({ project_id: project.id }).count({ n: "*" })).toEqual([
+      { n: 0 },
+    ]);
+
+    const id = await createRequest(knex, owner, project.id, { ...post, acknowledgeStop: "on" });
+    const row = await knex("audit_log").where({ entity_id: id, action: "request.posted" }).first();
+    expect(JSON.stringify(row)).toMatch(/acknowledgedStop/);
+  });
+
+  it("asks nothing extra when the loop check has no stop", async () => {
+    await truncateAll(knex);
+    const owner = await makeHomeowner(knex);
+    const project = await makeProject(knex, owner);
+    expect(runLoopCheck(project.system).worst).not.toBe("stop");
+    await expect(createRequest(knex, owner, project.id, post)).resolves.toBeGreaterThan(0);
   });
 });

@@ -134,7 +134,13 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
             </details>
           </div>
         ) : complete ? (
-          <RequestForm projectId={project.id} currency={env().CURRENCY} />
+          <RequestForm
+            projectId={project.id}
+            currency={env().CURRENCY}
+            stops={result.findings
+              .filter((f) => f.level === "stop")
+              .map((f) => ({ title: f.title, action: f.action }))}
+          />
         ) : (
           <p>Finish the description to ask for a review.</p>
         )}
