@@ -126,6 +126,12 @@ describe("the request board in Chromium", () => {
     expect(await hp.locator('th[aria-sort="descending"]').count()).toBe(1);
     await hp.screenshot({ path: "tests/e2e/screenshots/quotes.png", fullPage: true });
     await hp.getByRole("button", { name: /^Accept the quote from/ }).click();
+    // The confirmation names the price and what happens next before anything is sent.
+    await hp.getByRole("dialog").getByText("What happens next").waitFor();
+    await hp
+      .getByRole("dialog")
+      .getByRole("button", { name: /^Accept for / })
+      .click();
     // Accepting leads straight to the job page, where paying into held funds is the next step.
     await hp.waitForURL(/\/jobs\/\d+$/);
     await hp.locator('[data-job-state="awaiting_payment"]').waitFor();

@@ -159,7 +159,12 @@ async function HomeownerView({ user, requestId }: { user: CurrentUser; requestId
         </Card>
       ) : null}
       {quotes.length ? (
-        <QuoteTable requestId={requestId} quotes={quotes} open={request.status === "open"} />
+        <QuoteTable
+          requestId={requestId}
+          quotes={quotes}
+          open={request.status === "open"}
+          kind={request.kind}
+        />
       ) : null}
       {quotes.map((q) => (
         <Card key={`thread-${q.id}`}>
