@@ -24,7 +24,14 @@ export function ProfileForm({
   const e = state.fieldErrors;
   const chosen = new Set((v?.specialisms as string[] | undefined) ?? profile?.specialisms ?? []);
   return (
-    <form action={action} className="space-y-4" aria-label="Reviewer profile">
+    // Keyed by what was last sent: after a save React resets the form to its default values, and
+    // a select only takes a new default when it is mounted again (else it shows "Choose…").
+    <form
+      key={JSON.stringify(v ?? null)}
+      action={action}
+      className="space-y-4"
+      aria-label="Reviewer profile"
+    >
       <div className="grid gap-x-4 gap-y-2 sm:grid-cols-2">
         <FormField
           name="tradingName"

@@ -71,15 +71,29 @@ async function ReviewerView({ user, requestId }: { user: CurrentUser; requestId:
       </Card>
       <Card>
         <h2 className="mb-3 text-xl font-bold">Sketch and photos</h2>
-        <ul className="grid gap-3 sm:grid-cols-3">
+        <ul className="grid grid-cols-2 gap-3 sm:grid-cols-3">
           {r.files.map((f) => (
             <li key={f.id}>
-              <a className="underline" href={`/api/files/${f.id}`} target="_blank" rel="noreferrer">
-                {f.purpose === "sketch" ? "System sketch" : (f.caption ?? f.fileName)}
+              <a
+                className="group block space-y-1"
+                href={`/api/files/${f.id}`}
+                target="_blank"
+                rel="noreferrer"
+              >
+                {f.mimeType.startsWith("image/") ? (
+                  // eslint-disable-next-line @next/next/no-img-element -- a private file served by our own route
+                  <img
+                    src={`/api/files/${f.id}?variant=thumbnail`}
+                    alt={f.purpose === "sketch" ? "System sketch" : (f.caption ?? f.fileName)}
+                    loading="lazy"
+                    className="aspect-[4/3] w-full rounded-lg border border-slate-200 bg-slate-100 object-cover"
+                  />
+                ) : null}
+                <span className="block font-semibold underline">
+                  {f.purpose === "sketch" ? "System sketch" : (f.caption ?? f.fileName)}
+                </span>
               </a>
-              <span className="ml-1 text-sm text-slate-600">
-                {labelFor(PHOTO_TAG_LABELS, f.tag)}
-              </span>
+              <span className="text-sm text-slate-600">{labelFor(PHOTO_TAG_LABELS, f.tag)}</span>
             </li>
           ))}
           {r.files.length === 0 ? <li>No files uploaded.</li> : null}
