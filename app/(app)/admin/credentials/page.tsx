@@ -110,8 +110,9 @@ export default async function CredentialQueuePage({
         {plural(total, "credential")} · page {query.page} of {pages}
       </p>
       <div className="overflow-x-auto rounded-card border border-slate-200 bg-white">
-        <table className="w-full text-left">
-          <thead className="border-b border-slate-200 text-sm text-slate-600">
+        {/* On phones each row stacks into a block, so the decision is never off-screen. */}
+        <table className="w-full text-left max-md:block">
+          <thead className="border-b border-slate-200 text-sm text-slate-600 max-md:hidden">
             <tr>
               <th scope="col" className="py-2 pl-4 pr-3">
                 Reviewer
@@ -128,7 +129,7 @@ export default async function CredentialQueuePage({
               </th>
             </tr>
           </thead>
-          <tbody>
+          <tbody className="max-md:block">
             {rows.length === 0 ? (
               <tr>
                 <td colSpan={7} className="p-4">
@@ -139,10 +140,10 @@ export default async function CredentialQueuePage({
               rows.map((c) => (
                 <tr
                   key={c.id}
-                  className="border-b border-slate-100 align-top"
+                  className="border-b border-slate-100 align-top max-md:block max-md:py-2"
                   data-credential={c.id}
                 >
-                  <td className="py-3 pl-4 pr-3">
+                  <td className="py-3 pl-4 pr-3 max-md:block max-md:py-1">
                     <Link
                       className="font-semibold underline"
                       href={`/admin/reviewers/${c.reviewerId}`}
@@ -151,8 +152,10 @@ export default async function CredentialQueuePage({
                     </Link>
                     <div className="text-sm text-slate-600">{c.reviewerEmail}</div>
                   </td>
-                  <td className="py-3 pr-3">{credentialName(c.kind)}</td>
-                  <td className="py-3 pr-3">
+                  <td className="py-3 pr-3 max-md:block max-md:px-4 max-md:py-1">
+                    {credentialName(c.kind)}
+                  </td>
+                  <td className="py-3 pr-3 max-md:block max-md:px-4 max-md:py-1">
                     {c.issuer}
                     <div className="font-mono text-sm">{c.number}</div>
                     {c.evidenceAttachmentId ? (
@@ -168,13 +171,19 @@ export default async function CredentialQueuePage({
                       <div className="text-xs text-slate-500">no document uploaded</div>
                     )}
                   </td>
-                  <td className="py-3 pr-3">{c.expiresOn}</td>
-                  <td className="py-3 pr-3">
+                  <td className="whitespace-nowrap py-3 pr-3 max-md:block max-md:px-4 max-md:py-1">
+                    <span className="md:hidden">Expires </span>
+                    {c.expiresOn}
+                  </td>
+                  <td className="py-3 pr-3 max-md:block max-md:px-4 max-md:py-1">
                     <CredentialStatus status={c.status} />
                     {c.adminReason ? <div className="mt-1 text-sm">{c.adminReason}</div> : null}
                   </td>
-                  <td className="py-3 pr-3 text-sm">{c.createdAt.slice(0, 16)}</td>
-                  <td className="min-w-72 py-3 pr-4">
+                  <td className="whitespace-nowrap py-3 pr-3 text-sm max-md:block max-md:px-4 max-md:py-1">
+                    <span className="md:hidden">Submitted </span>
+                    {c.createdAt.slice(0, 16)}
+                  </td>
+                  <td className="py-3 pr-4 max-md:block max-md:px-4 md:min-w-72">
                     {c.status === "pending" ? (
                       <CredentialDecision
                         credentialId={c.id}
