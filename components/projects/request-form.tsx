@@ -2,6 +2,7 @@
 
 import { currencySymbol, SERVICE_LABELS } from "@/lib/labels";
 import { StepCaution } from "@/components/ui/caution";
+import { TownPicker } from "./town-picker";
 import { useActionState, useState } from "react";
 import { Button } from "@/components/ui/button";
 import { Field, inputClass } from "@/components/ui/field";
@@ -106,23 +107,31 @@ export function RequestForm({ projectId, existing, currency, stops = [] }: Reque
             defaultValue={v?.windowEnd ?? ""}
             errors={e}
           />
-          <FormField
-            name="siteLat"
-            label="Site latitude (optional)"
-            type="number"
-            step="any"
-            hint="Only for distances on the board"
-            defaultValue={v?.siteLat ?? ""}
-            errors={e}
-          />
-          <FormField
-            name="siteLng"
-            label="Site longitude (optional)"
-            type="number"
-            step="any"
-            defaultValue={v?.siteLng ?? ""}
-            errors={e}
-          />
+          <TownPicker error={e?.siteTownId?.[0]} />
+          <details className="sm:col-span-2">
+            <summary className="min-h-11 cursor-pointer py-2 text-sm font-semibold">
+              Advanced: enter the site&apos;s coordinates instead
+            </summary>
+            <div className="grid gap-x-4 sm:grid-cols-2">
+              <FormField
+                name="siteLat"
+                label="Site latitude (optional)"
+                type="number"
+                step="any"
+                hint="Only for distances on the board"
+                defaultValue={v?.siteLat ?? ""}
+                errors={e}
+              />
+              <FormField
+                name="siteLng"
+                label="Site longitude (optional)"
+                type="number"
+                step="any"
+                defaultValue={v?.siteLng ?? ""}
+                errors={e}
+              />
+            </div>
+          </details>
           <Field
             id="f-accessNotes"
             label="Access notes (loft hatch, scaffold, parking)"

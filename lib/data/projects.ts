@@ -1,3 +1,4 @@
+import { townById } from "@/lib/towns";
 import {
   collectorArraySchema,
   sectionSchemas,
@@ -158,6 +159,12 @@ export async function listProjectRequests(
 
 function requestRow(v: RequestValues) {
   const site = v.kind === "site_visit";
+  // Coordinates typed in (the advanced option) win; otherwise the nearest town's point.
+  const town = site && v.siteLat === undefined && v.siteTownId ? townById(v.siteTownId) : null;
+  if (site && v.siteLat === undefined && v.siteTownId && !town)
+    throw unprocessable("Choose the nearest town from the list.", {
+      siteTownId: ["Choose a town from the list"],
+    });
   return {
     kind: v.kind,
     questions: v.questions,
@@ -166,8 +173,8 @@ function requestRow(v: RequestValues) {
     window_start: site ? v.windowStart || null : null,
     window_end: site ? v.windowEnd || null : null,
     access_notes: site ? v.accessNotes || null : null,
-    site_lat: site ? (v.siteLat ?? null) : null,
-    site_lng: site ? (v.siteLng ?? null) : null,
+    site_lat: site ? (v.siteLat ?? town?.lat ?? null) : null,
+    site_lng: site ? (v.siteLng ?? town?.lng ?? null) : null,
   };
 }
 

@@ -31,6 +31,11 @@ export const requestSchema = z
       (v) => (v === "" || v === undefined ? undefined : v),
       z.coerce.number().min(-90).max(90).optional(),
     ),
+    /** The nearest town's gazetteer id (lib/towns.ts); the point is derived from it. */
+    siteTownId: z.preprocess(
+      (v) => (v === "" || v === undefined ? undefined : v),
+      z.coerce.number({ error: "Choose a town from the list" }).int().positive().optional(),
+    ),
     siteLng: z.preprocess(
       (v) => (v === "" || v === undefined ? undefined : v),
       z.coerce.number().min(-180).max(180).optional(),

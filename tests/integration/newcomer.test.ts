@@ -134,3 +134,55 @@ describe("the safety gate on posting a request when the loop check has a stop", 
     await expect(createRequest(knex, owner, project.id, post)).resolves.toBeGreaterThan(0);
   });
 });
+
+describe("a site visit's place from the nearest town (packaged GeoNames gazetteer)", () => {
+  let knex: Knex;
+  beforeAll(() => {
+    knex = testKnex();
+  });
+  afterAll(async () => {
+    await truncateAll(knex);
+    await knex.destroy();
+  });
+  const day = (n: number) => new Date(Date.now() + n * 86_400_000).toISOString().slice(0, 10);
+  const visit = () => ({
+    kind: "site_visit",
+    questions: "Please check the vessel and the relief valve in place.",
+    budgetMinPounds: "120",
+    budgetMaxPounds: "300",
+    windowStart: day(7),
+    windowEnd: day(21),
+  });
+
+  it("derives the point from the town, and refuses a town not in the list beside its field", async () => {
+    await truncateAll(knex);
+    const owner = await makeHomeowner(knex);
+    const project = await makeProject(knex, owner);
+    // GeoNames 2649808 is Exeter, GB, at 50.7236 N, 3.52751 W (geonames.org/2649808).
+    const id = await createRequest(knex, owner, project.id, { ...visit(), siteTownId: "2649808" });
+    const row = await knex("requests").where({ id }).first("site_lat", "site_lng");
+    expect(Number(row.site_lat)).toBeCloseTo(50.7236, 3);
+    expect(Number(row.site_lng)).toBeCloseTo(-3.52751, 3);
+
+    const other = await makeProject(knex, owner);
+    const refused = await createRequest(knex, owner, other.id, {
+      ...visit(),
+      siteTownId: "999999999",
+    }).catch((e: unknown) => e);
+    expect(refused).toMatchObject({ status: 422, fieldErrors: { siteTownId: expect.any(Array) } });
+  });
+
+  it("keeps typed coordinates as the advanced option", async () => {
+    await truncateAll(knex);
+    const owner = await makeHomeowner(knex);
+    const project = await makeProject(knex, owner);
+    const id = await createRequest(knex, owner, project.id, {
+      ...visit(),
+      siteTownId: "2649808",
+      siteLat: "51.5",
+      siteLng: "-0.12",
+    });
+    const row = await knex("requests").where({ id }).first("site_lat", "site_lng");
+    expect(Number(row.site_lat)).toBeCloseTo(51.5, 3);
+  });
+});
