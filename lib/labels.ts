@@ -96,3 +96,22 @@ export function currencySymbol(currency: string, locale = "en-GB"): string {
     .find((p) => p.type === "currency");
   return part?.value ?? currency;
 }
+
+/** The locale dates are shown in when the user's own is not known (product default). */
+export const DEFAULT_LOCALE = "en-GB";
+
+/**
+ * A calendar date ("2026-12-14" or a Date) in the user's locale, e.g. "14 Dec 2026" in en-GB,
+ * never a bare mm/dd/yyyy. Dates without a time are read as UTC days, so they never shift.
+ */
+export function formatDate(value: string | Date | null | undefined, locale = DEFAULT_LOCALE) {
+  if (!value) return "";
+  const d = typeof value === "string" ? new Date(`${value.slice(0, 10)}T00:00:00Z`) : value;
+  if (Number.isNaN(d.getTime())) return String(value);
+  return new Intl.DateTimeFormat(locale, {
+    day: "numeric",
+    month: "short",
+    year: "numeric",
+    timeZone: "UTC",
+  }).format(d);
+}

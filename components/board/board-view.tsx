@@ -1,5 +1,7 @@
 "use client";
 
+import { formatDate } from "@/lib/labels";
+
 import { useInfiniteQuery } from "@tanstack/react-query";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { REGIONS, regionName } from "@/lib/regions";
@@ -189,7 +191,7 @@ export function BoardView({ currency }: { currency: string }) {
             {r.distanceKm !== null ? <span className="text-sm">{r.distanceKm} km away</span> : null}
             {r.windowStart ? (
               <span className="text-sm">
-                visit {r.windowStart} to {r.windowEnd}
+                visit {formatDate(r.windowStart)} to {formatDate(r.windowEnd)}
               </span>
             ) : null}
             <span className="ml-auto text-sm text-slate-600">

@@ -1,5 +1,7 @@
 "use client";
 
+import { formatDate } from "@/lib/labels";
+
 import { useState } from "react";
 import Link from "next/link";
 import { Markdown } from "@/components/ui/markdown";
@@ -69,7 +71,9 @@ export function QuoteTable({
         <>
           {plural(c.getValue(), "day")}
           {c.row.original.proposedVisitDate ? (
-            <div className="text-sm">visit {c.row.original.proposedVisitDate}</div>
+            <div className="whitespace-nowrap text-sm">
+              visit {formatDate(c.row.original.proposedVisitDate)}
+            </div>
           ) : null}
         </>
       ),

@@ -4,6 +4,7 @@ import { runLoopCheck } from "@/lib/calc/loop-check";
 import { systemSchema } from "@/lib/validation/system";
 import { requestSchema } from "@/lib/validation/request";
 import {
+  formatDate,
   currencySymbol,
   labelFor,
   plural,
@@ -51,6 +52,15 @@ describe("one place for the words of every code", () => {
     const messages = r.success ? [] : r.error.issues.map((i) => i.message);
     expect(messages).toContain("At least 1");
     expect(messages.join(" ")).not.toMatch(/[£$€]/);
+  });
+});
+
+describe("dates in the user's locale", () => {
+  it("shows en-GB by default (day month year, CLDR), never mm/dd/yyyy", () => {
+    expect(formatDate("2026-12-14")).toBe("14 Dec 2026");
+    expect(formatDate("2026-12-14", "en-US")).toBe("Dec 14, 2026");
+    expect(formatDate("2026-01-01 00:30:00")).toBe("1 Jan 2026");
+    expect(formatDate(null)).toBe("");
   });
 });
 

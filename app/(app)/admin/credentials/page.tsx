@@ -1,3 +1,4 @@
+import { formatDate } from "@/lib/labels";
 import { CREDENTIAL_STATUS_LABELS, plural } from "@/lib/labels";
 import type { Metadata } from "next";
 import Link from "next/link";
@@ -173,7 +174,7 @@ export default async function CredentialQueuePage({
                   </td>
                   <td className="whitespace-nowrap py-3 pr-3 max-md:block max-md:px-4 max-md:py-1">
                     <span className="md:hidden">Expires </span>
-                    {c.expiresOn}
+                    {formatDate(c.expiresOn)}
                   </td>
                   <td className="py-3 pr-3 max-md:block max-md:px-4 max-md:py-1">
                     <CredentialStatus status={c.status} />

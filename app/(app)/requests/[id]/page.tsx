@@ -1,3 +1,4 @@
+import { formatDate } from "@/lib/labels";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
@@ -58,7 +59,9 @@ async function ReviewerView({ user, requestId }: { user: CurrentUser; requestId:
         <p className="font-semibold">
           Budget {formatMoney(r.budgetMinMinor, r.currency)}–
           {formatMoney(r.budgetMaxMinor, r.currency)}
-          {r.windowStart ? ` · visit between ${r.windowStart} and ${r.windowEnd}` : ""}
+          {r.windowStart
+            ? ` · visit between ${formatDate(r.windowStart)} and ${formatDate(r.windowEnd)}`
+            : ""}
         </p>
         <h2 className="mt-3 text-lg font-bold">The homeowner asks</h2>
         <p className="whitespace-pre-line">{r.questions}</p>
