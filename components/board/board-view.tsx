@@ -1,9 +1,12 @@
 "use client";
 
+import { formatDate } from "@/lib/labels";
+
 import { useInfiniteQuery } from "@tanstack/react-query";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { REGIONS, regionName } from "@/lib/regions";
 import { formatMoney } from "@/lib/money";
+import { currencySymbol, SERVICE_LABELS, serviceLabel } from "@/lib/labels";
 import type { BoardPage } from "@/lib/types/board";
 import type { Level } from "@/lib/calc/findings";
 import { BOARD_FILTERS } from "@/lib/validation/board";
@@ -14,24 +17,29 @@ import { LevelBadge } from "@/components/loop-check/level-badge";
 // Read from the shared schema, so a new filter cannot be dropped on its way to the route.
 const FILTERS = BOARD_FILTERS;
 
+/** A refused board query: the message, and each field's own message to show beside it. */
+class BoardError extends Error {
+  constructor(
+    message: string,
+    readonly fieldErrors: Record<string, string[]>,
+  ) {
+    super(message);
+  }
+}
+
 async function fetchPage(params: URLSearchParams, cursor: string | null): Promise<BoardPage> {
   const q = new URLSearchParams(params);
   if (cursor) q.set("cursor", cursor);
   const res = await fetch(`/api/board?${q}`);
   const body = await res.json();
-  if (!res.ok) {
-    const fields = body.fieldErrors
-      ? Object.values(body.fieldErrors as Record<string, string[]>)
-          .map((v) => v[0])
-          .join("; ")
-      : "";
-    throw new Error(`${body.error ?? "The board could not be loaded."} ${fields}`.trim());
-  }
+  if (!res.ok)
+    throw new BoardError(body.error ?? "The board could not be loaded.", body.fieldErrors ?? {});
   return body as BoardPage;
 }
 
 /** The request board: filters live in the URL; pages are fetched in the client as you scroll on. */
-export function BoardView() {
+export function BoardView({ currency }: { currency: string }) {
+  const money = currencySymbol(currency);
   const router = useRouter();
   const pathname = usePathname();
   const search = useSearchParams();
@@ -56,6 +64,13 @@ export function BoardView() {
     router.replace(`${pathname}${next.size ? `?${next}` : ""}`);
   };
   const items = board.data?.pages.flatMap((p) => p.items) ?? [];
+  const fieldErrors = board.error instanceof BoardError ? board.error.fieldErrors : {};
+  const errorFor = (name: string) =>
+    fieldErrors[name]?.[0] ? (
+      <span id={`${name}-error`} className="mt-1 block font-normal text-level-stop">
+        {fieldErrors[name][0]}
+      </span>
+    ) : null;
   const select = (name: string, label: string, options: [string, string][]) => (
     <label className="text-sm font-semibold">
       {label}
@@ -77,10 +92,7 @@ export function BoardView() {
         className="grid gap-3 rounded-card border border-slate-200 bg-white p-4 sm:grid-cols-3 lg:grid-cols-4"
         aria-label="Filter requests"
       >
-        {select("kind", "Kind", [
-          ["remote_check", "Remote design check"],
-          ["site_visit", "Site visit"],
-        ])}
+        {select("kind", "Service", Object.entries(SERVICE_LABELS))}
         {select("collectorType", "Collectors", [
           ["flat_plate", "Flat plate"],
           ["evacuated_tube", "Evacuated tube"],
@@ -96,24 +108,30 @@ export function BoardView() {
           ["30", "30 days"],
         ])}
         <label className="text-sm font-semibold">
-          Budget at least (£)
+          Budget at least ({money})
           <input
             name="budgetMin"
             type="number"
             min={0}
             defaultValue={search.get("budgetMin") ?? ""}
             className={inputClass}
+            aria-invalid={fieldErrors.budgetMin ? true : undefined}
+            aria-describedby={fieldErrors.budgetMin ? "budgetMin-error" : undefined}
           />
+          {errorFor("budgetMin")}
         </label>
         <label className="text-sm font-semibold">
-          Budget at most (£)
+          Budget at most ({money})
           <input
             name="budgetMax"
             type="number"
             min={0}
             defaultValue={search.get("budgetMax") ?? ""}
             className={inputClass}
+            aria-invalid={fieldErrors.budgetMax ? true : undefined}
+            aria-describedby={fieldErrors.budgetMax ? "budgetMax-error" : undefined}
           />
+          {errorFor("budgetMax")}
         </label>
         <label className="text-sm font-semibold">
           Site visits within (km)
@@ -123,7 +141,10 @@ export function BoardView() {
             min={1}
             defaultValue={search.get("withinKm") ?? ""}
             className={inputClass}
+            aria-invalid={fieldErrors.withinKm ? true : undefined}
+            aria-describedby={fieldErrors.withinKm ? "withinKm-error" : undefined}
           />
+          {errorFor("withinKm")}
         </label>
         <label className="text-sm font-semibold">
           Sort
@@ -159,7 +180,7 @@ export function BoardView() {
           >
             {r.worstLevel ? <LevelBadge level={r.worstLevel as Level} /> : null}
             <a className="font-semibold underline" href={`/requests/${r.id}`}>
-              {r.kind === "site_visit" ? "Site visit" : "Remote design check"}
+              {serviceLabel(r.kind)}
             </a>
             <span>{regionName(r.region)}</span>
             <span>{r.collectorType === "evacuated_tube" ? "evacuated tube" : "flat plate"}</span>
@@ -170,7 +191,7 @@ export function BoardView() {
             {r.distanceKm !== null ? <span className="text-sm">{r.distanceKm} km away</span> : null}
             {r.windowStart ? (
               <span className="text-sm">
-                visit {r.windowStart} to {r.windowEnd}
+                visit {formatDate(r.windowStart)} to {formatDate(r.windowEnd)}
               </span>
             ) : null}
             <span className="ml-auto text-sm text-slate-600">

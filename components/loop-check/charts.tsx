@@ -38,22 +38,14 @@ export function PressureChart({ data }: { data: NonNullable<Charts["pressure"]> 
               type="number"
               domain={["dataMin", Math.max(200, data.stagnation.tempC)]}
               unit=" °C"
+              tick={{ fontSize: 12 }}
             />
-            <YAxis domain={[0, top]} unit=" bar" width={60} />
+            <YAxis domain={[0, top]} unit=" bar" width={56} tick={{ fontSize: 12 }} />
             <Tooltip
               formatter={(v) => [`${v} bar`, "pressure"]}
               labelFormatter={(l) => `${l} °C`}
             />
-            <ReferenceLine
-              y={data.reliefBar}
-              stroke="#b42318"
-              strokeDasharray="6 4"
-              label={{
-                value: `relief ${data.reliefBar} bar`,
-                position: "insideTopRight",
-                fill: "#b42318",
-              }}
-            />
+            <ReferenceLine y={data.reliefBar} stroke="#b42318" strokeDasharray="6 4" />
             <Line
               type="monotone"
               dataKey="pressureBar"
@@ -69,12 +61,30 @@ export function PressureChart({ data }: { data: NonNullable<Charts["pressure"]> 
                 r={6}
                 fill="#f8c537"
                 stroke="#7e3f1f"
-                label={{ value: "stagnation, with steam", position: "top" }}
               />
             ) : null}
           </LineChart>
         </ResponsiveContainer>
       </div>
+      {/* The marks' words sit below the plot, where they never overlap the curve on a phone. */}
+      <ul className="mt-2 flex flex-wrap gap-x-4 gap-y-1 text-sm text-slate-700">
+        <li className="flex items-center gap-2">
+          <span
+            aria-hidden
+            className="inline-block w-6 border-t-2 border-dashed border-[#b42318]"
+          />
+          Relief valve {data.reliefBar} bar
+        </li>
+        {data.stagnation.pressureBar !== null ? (
+          <li className="flex items-center gap-2">
+            <span
+              aria-hidden
+              className="inline-block h-3 w-3 rounded-full border border-[#7e3f1f] bg-[#f8c537]"
+            />
+            Stagnation, with steam: {data.stagnation.pressureBar} bar at {data.stagnation.tempC} °C
+          </li>
+        ) : null}
+      </ul>
     </figure>
   );
 }
@@ -94,31 +104,20 @@ export function FreezeChart({ data }: { data: NonNullable<Charts["freeze"]> }) {
         <ResponsiveContainer width="100%" height="100%">
           <LineChart data={data.points} margin={{ top: 10, right: 20, bottom: 20, left: 0 }}>
             <CartesianGrid stroke="#e2e8f0" />
-            <XAxis dataKey="percent" type="number" domain={[0, 60]} unit=" %" />
-            <YAxis unit=" °C" width={60} domain={[-55, 5]} />
+            <XAxis
+              dataKey="percent"
+              type="number"
+              domain={[0, 60]}
+              unit=" %"
+              tick={{ fontSize: 12 }}
+            />
+            <YAxis unit=" °C" width={56} domain={[-55, 5]} tick={{ fontSize: 12 }} />
             <Tooltip
               formatter={(v) => [`${v} °C`, "freezing point"]}
               labelFormatter={(l) => `${l} % by mass`}
             />
-            <ReferenceLine
-              y={data.designMinC}
-              stroke="#2f5f8a"
-              strokeDasharray="6 4"
-              label={{
-                value: `site minimum ${data.designMinC} °C`,
-                position: "insideBottomLeft",
-                fill: "#2f5f8a",
-              }}
-            />
-            <ReferenceLine
-              x={data.percent}
-              stroke="#9d4f25"
-              label={{
-                value: `your mix ${data.percent} %`,
-                position: "insideTopRight",
-                fill: "#7e3f1f",
-              }}
-            />
+            <ReferenceLine y={data.designMinC} stroke="#2f5f8a" strokeDasharray="6 4" />
+            <ReferenceLine x={data.percent} stroke="#9d4f25" />
             <Line
               type="monotone"
               dataKey="freezeC"
@@ -130,6 +129,19 @@ export function FreezeChart({ data }: { data: NonNullable<Charts["freeze"]> }) {
           </LineChart>
         </ResponsiveContainer>
       </div>
+      <ul className="mt-2 flex flex-wrap gap-x-4 gap-y-1 text-sm text-slate-700">
+        <li className="flex items-center gap-2">
+          <span
+            aria-hidden
+            className="inline-block w-6 border-t-2 border-dashed border-[#2f5f8a]"
+          />
+          Site minimum {data.designMinC} °C
+        </li>
+        <li className="flex items-center gap-2">
+          <span aria-hidden className="inline-block h-4 border-l-2 border-[#9d4f25]" />
+          Your mix {data.percent} %
+        </li>
+      </ul>
     </figure>
   );
 }

@@ -1,11 +1,14 @@
 import { LEVELS, type Finding, type Level } from "@/lib/calc/findings";
 import { LevelBadge } from "./level-badge";
+import { hasRecalledFigures, plainSource } from "./plain-source";
 
+// The groups' headings never reuse a report outcome's words (Ready to commission, Fix before
+// filling, Do not proceed): levels and outcomes are different things.
 const GROUP_TITLES: Record<Level, string> = {
-  stop: "Stop: do not fill or commission until these are resolved",
-  fix: "Fix before filling",
-  note: "Notes",
-  ok: "Checks that pass",
+  stop: "Stop: unsafe as described; the loop must not be filled or run",
+  fix: "Fix: changes needed",
+  note: "Note: worth a look",
+  ok: "OK: checks that pass",
 };
 
 export interface FindingsListProps {
@@ -57,13 +60,20 @@ export function FindingsList({ findings }: FindingsListProps) {
                   <p className="mt-3 text-slate-800">
                     <strong>What to do:</strong> {f.action}
                   </p>
-                  <p className="mt-1 text-xs text-slate-500">Source: {f.source}</p>
+                  <p className="mt-1 text-xs text-slate-500">Source: {plainSource(f.source)}</p>
                   {f.method ? (
                     <details className="mt-2 text-sm text-slate-700">
                       <summary className="cursor-pointer font-medium text-slate-800">
                         How this is worked out
                       </summary>
-                      <p className="mt-1">{f.method}</p>
+                      <p className="mt-1">{plainSource(f.method)}</p>
+                      {hasRecalledFigures(f.source) || hasRecalledFigures(f.method) ? (
+                        <p className="mt-1 text-xs text-slate-600">
+                          Some coefficients here are quoted from the standard as commonly applied
+                          rather than from its latest edition: for design work, check the standard
+                          itself.
+                        </p>
+                      ) : null}
                     </details>
                   ) : null}
                 </li>

@@ -1,7 +1,7 @@
 "use client";
 
-import { useState } from "react";
-import { useForm } from "react-hook-form";
+import { useEffect, useRef, useState } from "react";
+import { useForm, useWatch } from "react-hook-form";
 import { zodResolver } from "@hookform/resolvers/zod";
 import { systemSchema, type System, type SystemInput } from "@/lib/validation/system";
 import { runLoopCheck, type LoopCheckResult } from "@/lib/calc/loop-check";
@@ -9,7 +9,8 @@ import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { SectionFields } from "./section-fields";
 import { SECTIONS } from "./system-fields";
-import { LoopCheckResults } from "./loop-check-results";
+import { LevelBadge } from "./level-badge";
+import { levelCounts, LoopCheckResults } from "./loop-check-results";
 
 export interface LoopCheckFormProps {
   defaultValues: SystemInput;
@@ -24,7 +25,29 @@ export function LoopCheckForm({ defaultValues }: LoopCheckFormProps) {
     mode: "onBlur",
   });
 
-  const onValid = (system: System) => setResult(runLoopCheck(system));
+  // The results follow the fields as they change (debounced): runLoopCheck validates each
+  // section itself and never throws, so a half-typed value only holds back its own findings.
+  const values = useWatch({ control: form.control });
+  const firstRun = useRef(true);
+  useEffect(() => {
+    if (firstRun.current) {
+      firstRun.current = false;
+      return;
+    }
+    const timer = setTimeout(() => setResult(runLoopCheck(values as SystemInput)), 400);
+    return () => clearTimeout(timer);
+  }, [values]);
+
+  const showResults = () => {
+    const box = document.getElementById("loop-check-results");
+    box?.scrollIntoView({ behavior: "smooth", block: "start" });
+    box?.querySelector<HTMLElement>("#results-title")?.focus({ preventScroll: true });
+  };
+
+  const onValid = (system: System) => {
+    setResult(runLoopCheck(system));
+    showResults();
+  };
 
   return (
     <div className="grid gap-8 lg:grid-cols-[minmax(0,5fr)_minmax(0,6fr)]">
@@ -44,13 +67,31 @@ export function LoopCheckForm({ defaultValues }: LoopCheckFormProps) {
             Some values need attention: see the messages beside the fields.
           </p>
         ) : null}
-        <div className="sticky bottom-0 bg-slate-50/95 py-3">
+        <div className="sticky bottom-0 space-y-2 bg-slate-50/95 py-3">
+          {/* On phones the results sit below the whole form: the summary stays in view here. */}
+          <a
+            href="#loop-check-results"
+            data-testid="results-summary"
+            aria-live="polite"
+            className="flex flex-wrap items-center gap-2 rounded-lg border border-slate-300 bg-white px-3 py-2 text-sm lg:hidden"
+            onClick={(e) => {
+              e.preventDefault();
+              showResults();
+            }}
+          >
+            <LevelBadge level={result.worst} />
+            <span>{levelCounts(result)}</span>
+            <span className="ml-auto font-semibold underline">See the results</span>
+          </a>
           <Button type="submit" className="w-full">
             Run the loop check
           </Button>
         </div>
       </form>
-      <div className="lg:sticky lg:top-4 lg:max-h-[calc(100vh-2rem)] lg:overflow-y-auto">
+      <div
+        id="loop-check-results"
+        className="scroll-mt-4 lg:sticky lg:top-4 lg:max-h-[calc(100vh-2rem)] lg:overflow-y-auto"
+      >
         <LoopCheckResults result={result} />
       </div>
     </div>

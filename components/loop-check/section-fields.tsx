@@ -1,5 +1,6 @@
 "use client";
 
+import { cautionForSection, StepCaution } from "@/components/ui/caution";
 import {
   get,
   useFieldArray,
@@ -141,6 +142,7 @@ export function SectionFields({ form, section }: { form: Form; section: SectionD
   return (
     <fieldset className="space-y-3" data-section={section.id}>
       <legend className="text-xl font-bold text-slate-900">{section.title}</legend>
+      {cautionForSection(section.id) ? <StepCaution step={cautionForSection(section.id)!} /> : null}
       {section.fields.length > 0 ? (
         <div className="grid gap-x-4 gap-y-2 sm:grid-cols-2">
           {section.fields.map((def) => (

@@ -1,5 +1,7 @@
 "use client";
 
+import { PHOTO_TAG_LABELS } from "@/lib/labels";
+import { StepCaution } from "@/components/ui/caution";
 import { useState } from "react";
 import { useRouter } from "next/navigation";
 import { Upload } from "lucide-react";
@@ -10,15 +12,7 @@ import { useUploadThing } from "@/components/uploads/helpers";
 import { ActionForm } from "@/components/ui/action-form";
 import { deleteFile } from "./actions";
 
-const TAG_LABELS: Record<string, string> = {
-  collector: "Collector",
-  roof: "Roof",
-  pump_station: "Pump station",
-  vessel: "Vessel",
-  cylinder: "Cylinder",
-  pipework: "Pipework",
-  other: "Other",
-};
+const TAG_LABELS = PHOTO_TAG_LABELS;
 const MAX_BYTES = 16 * 1024 * 1024;
 
 function Picker({
@@ -150,6 +144,7 @@ export function ProjectFiles({ projectId, files }: { projectId: number; files: P
           onFile={(f) => guard(f) && photo.startUpload([f], { projectId, caption, tag })}
         />
       </div>
+      {tag === "roof" || tag === "collector" ? <StepCaution step="roofPhotos" /> : null}
       <p aria-live="polite" className={message?.ok ? "text-level-ok" : "text-level-stop"}>
         {message?.text ?? ""}
       </p>

@@ -85,7 +85,10 @@ export function MessageThread({
         className="flex flex-col gap-2"
       >
         <label htmlFor={`msg-${requestId}-${reviewerId ?? "me"}`} className="text-sm font-semibold">
-          Message (Markdown)
+          Message
+          <span className="block font-normal text-slate-600">
+            You can use **bold**, lists and links.
+          </span>
         </label>
         <textarea
           id={`msg-${requestId}-${reviewerId ?? "me"}`}

@@ -1,5 +1,6 @@
 "use client";
 
+import { currencySymbol } from "@/lib/labels";
 import { useActionState } from "react";
 import { useFocusFirstError } from "@/components/ui/use-focus-first-error";
 import { Button } from "@/components/ui/button";
@@ -10,6 +11,8 @@ import { sendQuote, type QuoteActionState } from "./actions";
 export interface QuoteFormProps {
   requestId: number;
   siteVisit: boolean;
+  /** The configured currency (ISO code), for the price field. */
+  currency: string;
   current: {
     priceMinor: number;
     turnaroundDays: number;
@@ -18,7 +21,7 @@ export interface QuoteFormProps {
   } | null;
 }
 
-export function QuoteForm({ requestId, siteVisit, current }: QuoteFormProps) {
+export function QuoteForm({ requestId, siteVisit, current, currency }: QuoteFormProps) {
   const [state, action, pending] = useActionState<QuoteActionState, FormData>(
     sendQuote.bind(null, requestId),
     { ok: false },
@@ -32,7 +35,7 @@ export function QuoteForm({ requestId, siteVisit, current }: QuoteFormProps) {
         <FormField
           name="pricePounds"
           label="Price"
-          unit="£"
+          unit={currencySymbol(currency)}
           type="number"
           step="0.01"
           defaultValue={v?.pricePounds ?? (current ? current.priceMinor / 100 : "")}
@@ -56,7 +59,7 @@ export function QuoteForm({ requestId, siteVisit, current }: QuoteFormProps) {
           />
         ) : null}
       </div>
-      <Field id="f-scopeMd" label="What the review covers (Markdown)" error={e?.scopeMd?.[0]}>
+      <Field id="f-scopeMd" label="What the review covers" error={e?.scopeMd?.[0]}>
         <textarea
           id="f-scopeMd"
           name="scopeMd"

@@ -1,5 +1,7 @@
 "use client";
 
+import { formatDate } from "@/lib/labels";
+
 import { useState } from "react";
 import Link from "next/link";
 import { Markdown } from "@/components/ui/markdown";
@@ -13,6 +15,7 @@ import {
 } from "@tanstack/react-table";
 import type { QuoteForHomeowner } from "@/lib/types/quotes";
 import { formatMoney } from "@/lib/money";
+import { plural, serviceLabel } from "@/lib/labels";
 import { ActionForm } from "@/components/ui/action-form";
 import { AcceptButton } from "./accept-button";
 import { declineQuoteAction } from "./actions";
@@ -24,10 +27,13 @@ export function QuoteTable({
   requestId,
   quotes,
   open,
+  kind,
 }: {
   requestId: number;
   quotes: QuoteForHomeowner[];
   open: boolean;
+  /** The service asked for (remote_check or site_visit), named in the confirmation. */
+  kind: string;
 }) {
   const [sorting, setSorting] = useState<SortingState>([]);
   const columns = [
@@ -51,6 +57,8 @@ export function QuoteTable({
     col.accessor("priceMinor", {
       id: "price",
       header: "Price",
+      // Cheapest first on the first click.
+      sortDescFirst: false,
       cell: (c) => (
         <span className="font-mono">{formatMoney(c.getValue(), c.row.original.currency)}</span>
       ),
@@ -58,11 +66,14 @@ export function QuoteTable({
     col.accessor("turnaroundDays", {
       id: "turnaround",
       header: "Turnaround",
+      sortDescFirst: false,
       cell: (c) => (
         <>
-          {c.getValue()} days
+          {plural(c.getValue(), "day")}
           {c.row.original.proposedVisitDate ? (
-            <div className="text-sm">visit {c.row.original.proposedVisitDate}</div>
+            <div className="whitespace-nowrap text-sm">
+              visit {formatDate(c.row.original.proposedVisitDate)}
+            </div>
           ) : null}
         </>
       ),
@@ -108,7 +119,13 @@ export function QuoteTable({
         if (!open) return null;
         return (
           <div className="space-y-2">
-            <AcceptButton requestId={requestId} quoteId={q.id} label={q.tradingName} />
+            <AcceptButton
+              requestId={requestId}
+              quoteId={q.id}
+              label={q.tradingName}
+              price={formatMoney(q.priceMinor, q.currency)}
+              serviceName={serviceLabel(kind)}
+            />
             <ActionForm
               action={declineQuoteAction}
               fields={{ requestId, quoteId: q.id }}
@@ -140,57 +157,115 @@ export function QuoteTable({
     getCoreRowModel: getCoreRowModel(),
     getSortedRowModel: getSortedRowModel(),
   });
+  const byId = (id: string) => table.getColumn(id);
   return (
-    <div className="overflow-x-auto rounded-card border border-slate-200 bg-white">
-      <table className="w-full text-left" aria-label="Quotes">
-        <thead className="border-b border-slate-200 text-sm text-slate-600">
-          {table.getHeaderGroups().map((g) => (
-            <tr key={g.id}>
-              {g.headers.map((h) => {
-                const sorted = h.column.getIsSorted();
-                return (
-                  <th
-                    key={h.id}
-                    scope="col"
-                    className="p-3"
-                    aria-sort={
-                      sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : undefined
-                    }
-                  >
-                    {h.column.getCanSort() ? (
-                      <button
-                        type="button"
-                        onClick={h.column.getToggleSortingHandler()}
-                        className="min-h-11 font-semibold underline-offset-2 hover:underline"
-                      >
-                        {flexRender(h.column.columnDef.header, h.getContext())}{" "}
-                        {sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : ""}
-                      </button>
-                    ) : (
-                      flexRender(h.column.columnDef.header, h.getContext())
-                    )}
-                  </th>
-                );
-              })}
-            </tr>
-          ))}
-        </thead>
-        <tbody>
-          {table.getRowModel().rows.map((row) => (
-            <tr
-              key={row.id}
-              className="border-b border-slate-100 align-top"
-              data-quote={row.original.status}
-            >
-              {row.getVisibleCells().map((cell) => (
-                <td key={cell.id} className="p-3">
-                  {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                </td>
-              ))}
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
+    <>
+      {/* Phones: one card per quote, the Accept button in view; sorting by the same columns. */}
+      <div className="space-y-3 md:hidden" data-testid="quote-cards">
+        <label className="flex items-center gap-2 text-sm font-semibold">
+          Sort by
+          <select
+            className="min-h-11 rounded-lg border border-slate-300 bg-white px-2"
+            value={sorting[0] ? `${sorting[0].id}:${sorting[0].desc ? "desc" : "asc"}` : ""}
+            onChange={(e) => {
+              const [id, dir] = e.target.value.split(":");
+              setSorting(id ? [{ id: id!, desc: dir === "desc" }] : []);
+            }}
+          >
+            <option value="">As listed</option>
+            <option value="price:asc">Price, lowest first</option>
+            <option value="turnaround:asc">Turnaround, quickest first</option>
+            <option value="rating:desc">Rating, highest first</option>
+            <option value="distance:asc">Distance, nearest first</option>
+          </select>
+        </label>
+        {table.getRowModel().rows.map((row) => (
+          <article
+            key={row.id}
+            data-quote={row.original.status}
+            className="space-y-2 rounded-card border border-slate-200 bg-white p-4"
+          >
+            {(["tradingName", "price", "turnaround", "rating", "distance"] as const).map((id) => {
+              const cell = row.getVisibleCells().find((c) => c.column.id === id);
+              if (!cell) return null;
+              const header = byId(id)?.columnDef.header;
+              return (
+                <div key={id} className="flex flex-wrap items-baseline justify-between gap-2">
+                  {id === "tradingName" ? null : (
+                    <span className="text-sm text-slate-600">{String(header)}</span>
+                  )}
+                  <div>{flexRender(cell.column.columnDef.cell, cell.getContext())}</div>
+                </div>
+              );
+            })}
+            <details className="text-sm">
+              <summary className="min-h-11 cursor-pointer py-2 font-semibold">Scope</summary>
+              <div className="prose prose-sm">
+                <Markdown>{row.original.scopeMd}</Markdown>
+              </div>
+            </details>
+            {(() => {
+              const cell = row.getVisibleCells().find((c) => c.column.id === "actions");
+              return cell ? flexRender(cell.column.columnDef.cell, cell.getContext()) : null;
+            })()}
+          </article>
+        ))}
+      </div>
+      <div className="hidden overflow-x-auto rounded-card border border-slate-200 bg-white md:block">
+        <table className="w-full text-left" aria-label="Quotes">
+          <thead className="border-b border-slate-200 text-sm text-slate-600">
+            {table.getHeaderGroups().map((g) => (
+              <tr key={g.id}>
+                {g.headers.map((h) => {
+                  const sorted = h.column.getIsSorted();
+                  return (
+                    <th
+                      key={h.id}
+                      scope="col"
+                      className="p-3"
+                      aria-sort={
+                        sorted === "asc"
+                          ? "ascending"
+                          : sorted === "desc"
+                            ? "descending"
+                            : undefined
+                      }
+                    >
+                      {h.column.getCanSort() ? (
+                        <button
+                          type="button"
+                          onClick={h.column.getToggleSortingHandler()}
+                          className="min-h-11 font-semibold underline-offset-2 hover:underline"
+                        >
+                          {flexRender(h.column.columnDef.header, h.getContext())}{" "}
+                          {sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : ""}
+                        </button>
+                      ) : (
+                        flexRender(h.column.columnDef.header, h.getContext())
+                      )}
+                    </th>
+                  );
+                })}
+              </tr>
+            ))}
+          </thead>
+          <tbody>
+            {table.getRowModel().rows.map((row) => (
+              <tr
+                key={row.id}
+                className="border-b border-slate-100 align-top"
+                data-quote={row.original.status}
+              >
+                {row.getVisibleCells().map((cell) => (
+                  <td key={cell.id} className="p-3">
+                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                  </td>
+                ))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </>
   );
 }

@@ -1,25 +1,26 @@
 import { cn } from "@/lib/cn";
 import { CircleCheck, Clock, OctagonX, CalendarX } from "lucide-react";
+import { CREDENTIAL_STATUS_LABELS } from "@/lib/labels";
 
 const STYLE = {
   pending: {
     icon: Clock,
-    label: "Waiting for check",
+    label: CREDENTIAL_STATUS_LABELS.pending,
     className: "border-level-note text-level-note bg-level-note-bg",
   },
   verified: {
     icon: CircleCheck,
-    label: "Verified",
+    label: CREDENTIAL_STATUS_LABELS.verified,
     className: "border-level-ok text-level-ok bg-level-ok-bg",
   },
   rejected: {
     icon: OctagonX,
-    label: "Not accepted",
+    label: CREDENTIAL_STATUS_LABELS.rejected,
     className: "border-level-stop text-level-stop bg-level-stop-bg",
   },
   expired: {
     icon: CalendarX,
-    label: "Expired",
+    label: CREDENTIAL_STATUS_LABELS.expired,
     className: "border-level-fix text-level-fix bg-level-fix-bg",
   },
 } as const;

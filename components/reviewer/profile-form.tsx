@@ -1,5 +1,6 @@
 "use client";
 
+import { currencySymbol } from "@/lib/labels";
 import { useActionState } from "react";
 import { useFocusFirstError } from "@/components/ui/use-focus-first-error";
 import { REGIONS } from "@/lib/regions";
@@ -10,7 +11,13 @@ import { Field, inputClass } from "@/components/ui/field";
 import { FormField } from "@/components/ui/form-field";
 import { saveProfile, type FormState } from "./actions";
 
-export function ProfileForm({ profile }: { profile: ReviewerProfile | null }) {
+export function ProfileForm({
+  profile,
+  currency,
+}: {
+  profile: ReviewerProfile | null;
+  currency: string;
+}) {
   const [state, action, pending] = useActionState<FormState, FormData>(saveProfile, { ok: false });
   const formRef = useFocusFirstError(state);
   const v = state.values;
@@ -19,7 +26,15 @@ export function ProfileForm({ profile }: { profile: ReviewerProfile | null }) {
   const e = state.fieldErrors;
   const chosen = new Set((v?.specialisms as string[] | undefined) ?? profile?.specialisms ?? []);
   return (
-    <form ref={formRef} action={action} className="space-y-4" aria-label="Reviewer profile">
+    // Keyed by what was last sent: after a save React resets the form to its default values, and
+    // a select only takes a new default when it is mounted again (else it shows "Choose…").
+    <form
+      ref={formRef}
+      key={JSON.stringify(v ?? null)}
+      action={action}
+      className="space-y-4"
+      aria-label="Reviewer profile"
+    >
       <div className="grid gap-x-4 gap-y-2 sm:grid-cols-2">
         <FormField
           name="tradingName"
@@ -54,7 +69,7 @@ export function ProfileForm({ profile }: { profile: ReviewerProfile | null }) {
         <FormField
           name="hourlyRatePounds"
           label="Hourly rate guide"
-          unit="£"
+          unit={currencySymbol(currency)}
           type="number"
           step="0.01"
           defaultValue={val(

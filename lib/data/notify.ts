@@ -11,6 +11,7 @@ import { formatWhen, fromSqlDateTime, sqlDateTime } from "@/lib/time";
 import type { Db } from "./db";
 import { enqueueEmail } from "./outbox";
 import { itemTitle } from "@/lib/checklist/item-titles";
+import type { TemplatePayloads } from "@/lib/mail/kinds";
 
 type Trx = Db;
 
@@ -42,6 +43,7 @@ async function quoteContext(trx: Trx, quoteId: number) {
       "q.currency",
       "q.decline_reason",
       "r.id as request_id",
+      "r.status as request_status",
       "p.title",
       "h.id as homeowner_id",
       "h.email as homeowner_email",
@@ -127,7 +129,9 @@ export async function notifyQuoteDeclined(trx: Trx, appUrl: string, quoteId: num
       name: q.reviewer_name,
       projectTitle: q.title,
       reason: q.decline_reason,
-      url: `${appUrl}/board`,
+      // Awarded: another quote was accepted; still open: the homeowner declined this one.
+      chosenAnother: q.request_status === "awarded",
+      url: `${appUrl}/requests/${q.request_id}`,
     },
     dedupeKey: `quote-${q.id}-declined`,
   });
@@ -326,9 +330,37 @@ async function credentialContext(trx: Trx, credentialId: number) {
   return c;
 }
 
+/** How long a "credential verified" e-mail waits for more verifications to join it. */
+export const CREDENTIAL_BATCH_MS = 2 * 60_000;
+
+/**
+ * A credential verified. Verifications of one reviewer's credentials in the same sitting go
+ * out as one e-mail: the first waits CREDENTIAL_BATCH_MS unsent, and later ones join it.
+ */
 export async function notifyCredentialVerified(trx: Trx, appUrl: string, credentialId: number) {
   const c = await credentialContext(trx, credentialId);
+  const line = { credential: credentialName(c.kind), expiresOn: String(c.expires_on) };
+  const waiting = await trx("email_outbox")
+    .where({ to_user_id: c.user_id, template: "credential_verified", status: "pending" })
+    .andWhere("attempts", 0)
+    .andWhere("next_attempt_at", ">", sqlDateTime(new Date()))
+    .forUpdate()
+    .first("id", "payload");
+  if (waiting) {
+    const payload = (
+      typeof waiting.payload === "string" ? JSON.parse(waiting.payload) : waiting.payload
+    ) as TemplatePayloads["credential_verified"];
+    const listed = [payload, ...(payload.more ?? [])].some(
+      (m) => m.credential === line.credential && m.expiresOn === line.expiresOn,
+    );
+    if (!listed)
+      await trx("email_outbox")
+        .where({ id: waiting.id })
+        .update({ payload: JSON.stringify({ ...payload, more: [...(payload.more ?? []), line] }) });
+    return listed ? "duplicate" : "queued";
+  }
   return enqueueEmail(trx, {
+    delayMs: CREDENTIAL_BATCH_MS,
     to: { address: c.email, userId: c.user_id },
     template: "credential_verified",
     payload: {

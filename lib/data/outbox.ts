@@ -17,6 +17,8 @@ export interface EnqueueEmail<K extends TemplateName> {
   dedupeKey?: string;
   /** Files sent with it (a calendar invitation), stored with the row. */
   attachments?: MailAttachment[];
+  /** Hold the e-mail this long before the worker may send it (so related events can batch). */
+  delayMs?: number;
 }
 
 export type EnqueueResult = "queued" | "duplicate" | "opted_out";
@@ -46,12 +48,21 @@ export async function enqueueEmail<K extends TemplateName>(
     payload: JSON.stringify(e.payload),
     dedupe_key: e.dedupeKey ?? null,
     attachments: e.attachments?.length ? JSON.stringify(e.attachments) : null,
+    next_attempt_at: sqlDateTime(new Date(Date.now() + (e.delayMs ?? 0))),
   };
   if (e.dedupeKey) {
     // INSERT IGNORE keeps the transaction alive on a repeated key (a plain insert would abort it).
     const [result] = (await trx.raw(
-      "INSERT IGNORE INTO email_outbox (to_user_id, to_address, template, payload, dedupe_key, attachments) VALUES (?, ?, ?, ?, ?, ?)",
-      [row.to_user_id, row.to_address, row.template, row.payload, row.dedupe_key, row.attachments],
+      "INSERT IGNORE INTO email_outbox (to_user_id, to_address, template, payload, dedupe_key, attachments, next_attempt_at) VALUES (?, ?, ?, ?, ?, ?, ?)",
+      [
+        row.to_user_id,
+        row.to_address,
+        row.template,
+        row.payload,
+        row.dedupe_key,
+        row.attachments,
+        row.next_attempt_at,
+      ],
     )) as [{ affectedRows: number }];
     return result.affectedRows === 1 ? "queued" : "duplicate";
   }

@@ -1,3 +1,4 @@
+import { townById } from "@/lib/towns";
 import {
   collectorArraySchema,
   sectionSchemas,
@@ -158,6 +159,12 @@ export async function listProjectRequests(
 
 function requestRow(v: RequestValues) {
   const site = v.kind === "site_visit";
+  // Coordinates typed in (the advanced option) win; otherwise the nearest town's point.
+  const town = site && v.siteLat === undefined && v.siteTownId ? townById(v.siteTownId) : null;
+  if (site && v.siteLat === undefined && v.siteTownId && !town)
+    throw unprocessable("Choose the nearest town from the list.", {
+      siteTownId: ["Choose a town from the list"],
+    });
   return {
     kind: v.kind,
     questions: v.questions,
@@ -166,8 +173,8 @@ function requestRow(v: RequestValues) {
     window_start: site ? v.windowStart || null : null,
     window_end: site ? v.windowEnd || null : null,
     access_notes: site ? v.accessNotes || null : null,
-    site_lat: site ? (v.siteLat ?? null) : null,
-    site_lng: site ? (v.siteLng ?? null) : null,
+    site_lat: site ? (v.siteLat ?? town?.lat ?? null) : null,
+    site_lng: site ? (v.siteLng ?? town?.lng ?? null) : null,
   };
 }
 
@@ -200,6 +207,15 @@ export async function createRequest(
     const open = await trx("requests").where({ project_id: projectId, status: "open" }).first("id");
     if (open) throw conflict("This project already has an open request: edit that one instead.");
     const check = runLoopCheck(full.data);
+    if (check.worst === "stop" && !v.acknowledgeStop)
+      throw unprocessable(
+        "The loop check found something that stops the work: read why, and confirm the loop will not be filled or run until it is resolved.",
+        {
+          acknowledgeStop: [
+            "Confirm you have read the stop findings and will not fill or run the loop until they are resolved",
+          ],
+        },
+      );
     const checklist = buildChecklist(full.data, check.findings);
     const [id] = await trx("requests").insert({
       project_id: projectId,
@@ -218,7 +234,10 @@ export async function createRequest(
       }),
       ...requestRow(v),
     });
-    await audit(trx, actor.id, "request.posted", "request", Number(id), { projectId });
+    await audit(trx, actor.id, "request.posted", "request", Number(id), {
+      projectId,
+      ...(check.worst === "stop" ? { acknowledgedStop: true } : {}),
+    });
     return Number(id);
   });
 }

@@ -188,7 +188,7 @@ export async function acceptQuote(
           "id",
           others.map((o) => o.id),
         )
-        .update({ status: "declined", decline_reason: "The homeowner chose another quote." });
+        .update({ status: "declined", decline_reason: null });
     const [jobId] = await trx("jobs").insert({
       request_id: r.id,
       quote_id: quoteId,
@@ -264,6 +264,7 @@ export interface RequestForReviewer {
     scopeMd: string;
     proposedVisitDate: string | null;
     status: string;
+    declineReason: string | null;
   } | null;
 }
 
@@ -285,8 +286,17 @@ export async function getRequestForReviewer(
   if (!r) throw notFound("No such request.");
   const mine = await db("quotes")
     .where({ request_id: requestId, reviewer_id: actor.id })
-    .whereIn("status", ["live", "accepted"])
-    .first("id", "price_minor", "turnaround_days", "scope_md", "proposed_visit_date", "status");
+    .whereIn("status", ["live", "accepted", "declined"])
+    .orderBy("id", "desc")
+    .first(
+      "id",
+      "price_minor",
+      "turnaround_days",
+      "scope_md",
+      "proposed_visit_date",
+      "status",
+      "decline_reason",
+    );
   if (r.status !== "open" && !mine) throw notFound("This request is no longer open.");
   const files = await db("attachments")
     .where({ project_id: r.pid })
@@ -322,6 +332,7 @@ export async function getRequestForReviewer(
           scopeMd: mine.scope_md,
           proposedVisitDate: mine.proposed_visit_date,
           status: mine.status,
+          declineReason: mine.decline_reason ?? null,
         }
       : null,
   };

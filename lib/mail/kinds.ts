@@ -10,7 +10,14 @@ export interface TemplatePayloads {
     url: string;
   };
   quote_accepted: { name: string; projectTitle: string; price: string; url: string };
-  quote_declined: { name: string; projectTitle: string; reason?: string | null; url: string };
+  quote_declined: {
+    name: string;
+    projectTitle: string;
+    reason?: string | null;
+    /** True when the homeowner accepted another quote; otherwise they declined this one. */
+    chosenAnother?: boolean;
+    url: string;
+  };
   payment_received: { name: string; projectTitle: string; amount: string; url: string };
   review_started: { name: string; projectTitle: string; reviewerName: string; url: string };
   report_delivered: {
@@ -55,7 +62,14 @@ export interface TemplatePayloads {
   funds_released: { name: string; projectTitle: string; amount: string; url: string };
   dispute_opened: { name: string; projectTitle: string; reason: string; url: string };
   dispute_settled: { name: string; projectTitle: string; resolution: string; url: string };
-  credential_verified: { name: string; credential: string; expiresOn: string; url: string };
+  credential_verified: {
+    name: string;
+    credential: string;
+    expiresOn: string;
+    url: string;
+    /** Further credentials verified in the same sitting, batched into this one e-mail. */
+    more?: { credential: string; expiresOn: string }[];
+  };
   credential_rejected: { name: string; credential: string; reason: string; url: string };
   credential_expiring: { name: string; credential: string; expiresOn: string; url: string };
   item_requested: {

@@ -59,17 +59,19 @@ const CONTENT: { [K in TemplateName]: (p: TemplatePayloads[K]) => Content } = {
     subject: `Your quote for ${p.projectTitle} was not chosen`,
     heading: "Your quote was not chosen",
     paragraphs: [
-      `Hello ${p.name}, the homeowner chose another quote for ${p.projectTitle}.`,
-      ...(p.reason ? [`Their note: “${p.reason}”`] : []),
-      "New requests arrive on the board every day.",
+      p.chosenAnother
+        ? `Hello ${p.name}, the homeowner chose another quote for ${p.projectTitle}.`
+        : `Hello ${p.name}, the homeowner declined your quote for ${p.projectTitle}.`,
+      ...(p.reason ? [`Their reason: “${p.reason}”`] : []),
+      "Your messages with them stay readable on the request. New requests arrive on the board every day.",
     ],
-    action: { label: "Open the board", url: p.url },
+    action: { label: "See the request", url: p.url },
   }),
   payment_received: (p) => ({
     subject: `Payment held for ${p.projectTitle}`,
     heading: "The payment is held",
     paragraphs: [
-      `${p.amount} is held by Loopwright for ${p.projectTitle}. It is released to the reviewer only when the report is delivered and you release it, or the dispute window closes.`,
+      `${p.amount} is held by Loopwright for ${p.projectTitle}. It is released to the reviewer only after the report is delivered, when the homeowner releases it or the dispute window closes.`,
     ],
     action: { label: "Open the job", url: p.url },
   }),
@@ -163,7 +165,7 @@ const CONTENT: { [K in TemplateName]: (p: TemplatePayloads[K]) => Content } = {
   funds_released: (p) => ({
     subject: `Payment released for ${p.projectTitle}`,
     heading: "The payment is released",
-    paragraphs: [`${p.amount} for ${p.projectTitle} is on its way to your connected account.`],
+    paragraphs: [`${p.amount} for ${p.projectTitle} is on its way to your payout account.`],
     action: { label: "Open the job", url: p.url },
   }),
   dispute_opened: (p) => ({
@@ -182,16 +184,21 @@ const CONTENT: { [K in TemplateName]: (p: TemplatePayloads[K]) => Content } = {
     action: { label: "Open the job", url: p.url },
   }),
   credential_verified: (p) => ({
-    subject: `Credential verified: ${p.credential}`,
-    heading: "Credential verified",
-    paragraphs: [`Hello ${p.name}, your ${p.credential} is verified until ${p.expiresOn}.`],
+    subject: p.more?.length
+      ? `${p.more.length + 1} credentials verified`
+      : `Credential verified: ${p.credential}`,
+    heading: p.more?.length ? "Credentials verified" : "Credential verified",
+    paragraphs: [
+      `Hello ${p.name}, your ${p.credential} is verified until ${p.expiresOn}.`,
+      ...(p.more ?? []).map((m) => `Your ${m.credential} is verified until ${m.expiresOn}.`),
+    ],
     action: { label: "Open your credentials", url: p.url },
   }),
   credential_rejected: (p) => ({
-    subject: `Credential not accepted: ${p.credential}`,
-    heading: "Credential not accepted",
+    subject: `Credential rejected: ${p.credential}`,
+    heading: "Credential rejected",
     paragraphs: [
-      `Hello ${p.name}, we could not verify your ${p.credential}.`,
+      `Hello ${p.name}, an admin rejected your ${p.credential}.`,
       `Reason: ${p.reason}`,
       "You can upload new evidence at any time.",
     ],

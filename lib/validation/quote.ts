@@ -3,8 +3,8 @@ import { z } from "@/lib/zod";
 export const quoteSchema = z.object({
   pricePounds: z.coerce
     .number({ error: "Enter a price" })
-    .min(10, "At least £10")
-    .max(5000, "At most £5,000: split larger work into a site visit and a follow-up"),
+    .min(10, "At least 10")
+    .max(5000, "At most 5,000: split larger work into a site visit and a follow-up"),
   turnaroundDays: z.coerce
     .number({ error: "Enter a number of days" })
     .int("Whole days")

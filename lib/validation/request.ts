@@ -2,12 +2,12 @@ import { z } from "@/lib/zod";
 
 const pounds = z.coerce
   .number({ error: "Enter an amount" })
-  .min(1, "At least £1")
-  .max(5000, "At most £5,000 for a review");
+  .min(1, "At least 1")
+  .max(5000, "At most 5,000 for a review");
 
 export const requestSchema = z
   .object({
-    kind: z.enum(["remote_check", "site_visit"], { error: "Choose the kind of review" }),
+    kind: z.enum(["remote_check", "site_visit"], { error: "Choose the service" }),
     questions: z
       .string()
       .trim()
@@ -18,10 +18,23 @@ export const requestSchema = z
     windowStart: z.iso.date().optional().or(z.literal("")),
     windowEnd: z.iso.date().optional().or(z.literal("")),
     accessNotes: z.string().trim().max(2000).optional(),
+    /**
+     * The safety gate: set when the homeowner has read the loop check's stop findings and
+     * acknowledged the loop must not be filled or run until they are resolved.
+     */
+    acknowledgeStop: z.preprocess(
+      (v) => v === "on" || v === "true" || v === true,
+      z.boolean().default(false),
+    ),
     /** Optional site centre for distances on the board; no outside geocoder is used. */
     siteLat: z.preprocess(
       (v) => (v === "" || v === undefined ? undefined : v),
       z.coerce.number().min(-90).max(90).optional(),
+    ),
+    /** The nearest town's gazetteer id (lib/towns.ts); the point is derived from it. */
+    siteTownId: z.preprocess(
+      (v) => (v === "" || v === undefined ? undefined : v),
+      z.coerce.number({ error: "Choose a town from the list" }).int().positive().optional(),
     ),
     siteLng: z.preprocess(
       (v) => (v === "" || v === undefined ? undefined : v),

@@ -10,11 +10,15 @@ import { COPPER_TUBE_IDS } from "@/lib/calc/tubes";
  * they reject typing slips (a 60 m² collector, a 60 bar relief valve), not unusual designs.
  */
 
+/** "1 collector", "2 collectors": a counted word loses its "s" for one; symbols stay as they are. */
+const countUnit = (n: number, unit: string) =>
+  n === 1 && /^[a-z]+s$/.test(unit) ? unit.slice(0, -1) : unit;
+
 const num = (min: number, max: number, unit: string) =>
   z
     .number({ error: `Enter a number (${unit})` })
-    .min(min, `At least ${min} ${unit}`)
-    .max(max, `At most ${max} ${unit}`);
+    .min(min, `At least ${min} ${countUnit(min, unit)}`)
+    .max(max, `At most ${max} ${countUnit(max, unit)}`);
 
 const int = (min: number, max: number, unit: string) =>
   num(min, max, unit).int("Whole numbers only");

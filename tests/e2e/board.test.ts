@@ -51,7 +51,7 @@ describe("the request board in Chromium", () => {
     await page.locator("[data-board-item]").first().waitFor();
     const open = await knex("requests").where({ status: "open" }).count({ n: "*" });
     expect(await page.locator("[data-board-item]").count()).toBe(Number(open[0]!.n));
-    await page.getByLabel("Kind").selectOption("site_visit");
+    await page.getByLabel("Service").selectOption("site_visit");
     await page.getByRole("button", { name: "Show requests" }).click();
     await page.waitForURL(/kind=site_visit/);
     const sites = await knex("requests")
@@ -65,7 +65,7 @@ describe("the request board in Chromium", () => {
     expect(texts.every((t) => t.includes("Site visit"))).toBe(true);
     // Reloading keeps the filter (it lives in the URL).
     await page.reload();
-    expect(await page.getByLabel("Kind").inputValue()).toBe("site_visit");
+    expect(await page.getByLabel("Service").inputValue()).toBe("site_visit");
     await page.locator("[data-board-item]").first().waitFor();
     await page.screenshot({ path: "tests/e2e/screenshots/board.png", fullPage: true });
     await context.close();
@@ -96,7 +96,7 @@ describe("the request board in Chromium", () => {
       .getByLabel("What the review covers (Markdown)")
       .fill("**Checklist review** of the sketch and photos, with a written report.");
     await rp.getByRole("button", { name: "Send quote" }).click();
-    await rp.locator("#f-pricePounds-error", { hasText: /At least £10/ }).waitFor();
+    await rp.locator("#f-pricePounds-error", { hasText: /At least 10/ }).waitFor();
     await rp.getByLabel("Price").fill("120");
     await rp.getByRole("button", { name: "Send quote" }).click();
     await rp.getByText("Quote sent.").waitFor();
@@ -126,6 +126,12 @@ describe("the request board in Chromium", () => {
     expect(await hp.locator('th[aria-sort="descending"]').count()).toBe(1);
     await hp.screenshot({ path: "tests/e2e/screenshots/quotes.png", fullPage: true });
     await hp.getByRole("button", { name: /^Accept the quote from/ }).click();
+    // The confirmation names the price and what happens next before anything is sent.
+    await hp.getByRole("dialog").getByText("What happens next").waitFor();
+    await hp
+      .getByRole("dialog")
+      .getByRole("button", { name: /^Accept for / })
+      .click();
     // Accepting leads straight to the job page, where paying into held funds is the next step.
     await hp.waitForURL(/\/jobs\/\d+$/);
     await hp.locator('[data-job-state="awaiting_payment"]').waitFor();

@@ -92,7 +92,11 @@ describe("e-mail outbox, worker and SMTP fake", () => {
         .update({ admin_reason: "Number not found on the register" });
       await notify.notifyCredentialRejected(trx, APP, credential.id);
     });
-    const result = await send();
+    // "Credential verified" waits for the batch window before it may be sent.
+    const result = await send(
+      "test-worker",
+      new Date(Date.now() + notify.CREDENTIAL_BATCH_MS + 1000),
+    );
     expect(result.failed).toBe(0);
 
     const expectMail = async (userId: number, subject: RegExp, link: string) => {
@@ -104,7 +108,7 @@ describe("e-mail outbox, worker and SMTP fake", () => {
     };
     await expectMail(homeownerOfLive, /^New quote for/, `/requests/${live.request_id}`);
     await expectMail(accepted.reviewer_id, /was accepted$/, `/jobs/${acceptedJob.id}`);
-    await expectMail(declined.reviewer_id, /was not chosen$/, "/board");
+    await expectMail(declined.reviewer_id, /was not chosen$/, `/requests/${declined.request_id}`);
     await expectMail(funded.homeowner_id, /^Payment held/, `/jobs/${funded.id}`);
     await expectMail(funded.reviewer_id, /^Payment held/, `/jobs/${funded.id}`);
     await expectMail(funded.homeowner_id, /^Review started/, `/jobs/${funded.id}`);
@@ -115,7 +119,30 @@ describe("e-mail outbox, worker and SMTP fake", () => {
     await expectMail(admin.id, /^Dispute opened/, "/admin/disputes");
     await expectMail(disputed.homeowner_id, /^Dispute settled/, `/jobs/${disputed.id}`);
     await expectMail(credential.reviewer_id, /^Credential verified/, "/reviewer/credentials");
-    await expectMail(credential.reviewer_id, /^Credential not accepted/, "/reviewer/credentials");
+    await expectMail(credential.reviewer_id, /^Credential rejected/, "/reviewer/credentials");
+  });
+
+  it("batches credentials verified in one sitting into one e-mail, held for the batch window", async () => {
+    const reviewer = await knex("credentials")
+      .groupBy("reviewer_id")
+      .havingRaw("count(*) >= 3")
+      .first("reviewer_id");
+    const ids = (
+      await knex("credentials").where({ reviewer_id: reviewer.reviewer_id }).orderBy("id").limit(3)
+    ).map((c) => Number(c.id));
+    for (const id of ids)
+      await knex.transaction((trx) => notify.notifyCredentialVerified(trx, APP, id));
+    // A repeat of the same verification adds nothing.
+    await knex.transaction((trx) => notify.notifyCredentialVerified(trx, APP, ids[0]!));
+    const rows = (await outbox()).filter((r) => r.template === "credential_verified");
+    expect(rows).toHaveLength(1);
+    expect((await send()).sent).toBe(0); // still inside the batch window
+    const later = new Date(Date.now() + notify.CREDENTIAL_BATCH_MS + 1000);
+    expect((await send("test-worker", later)).sent).toBe(1);
+    const box = await fake.messages(await emailOf(Number(reviewer.reviewer_id)));
+    const m = box.find((x) => x.subject === "3 credentials verified");
+    expect(m, "one e-mail for three credentials").toBeDefined();
+    expect(m!.text.match(/is verified until/g)).toHaveLength(3);
   });
 
   it("a repeated event queues nothing new (dedupe key)", async () => {

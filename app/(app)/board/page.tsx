@@ -10,6 +10,7 @@ import { getPayoutAccount } from "@/lib/data/payments";
 import { ratingSummary } from "@/lib/data/ratings";
 import { RatingLine } from "@/components/aftercare/stars";
 import Link from "next/link";
+import { env } from "@/lib/env";
 
 export const metadata: Metadata = { title: "Request board" };
 
@@ -41,7 +42,7 @@ export default async function BoardPage() {
       </p>
       <PayoutNotice ready={(await getPayoutAccount(db(), user)).ready} />
       <Suspense fallback={<p role="status">Loading requests…</p>}>
-        <BoardView />
+        <BoardView currency={env().CURRENCY} />
       </Suspense>
     </div>
   );

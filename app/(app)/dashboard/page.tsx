@@ -1,3 +1,4 @@
+import { labelFor, plural, PROJECT_STATUS_LABELS } from "@/lib/labels";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { pageUser, type CurrentUser } from "@/lib/server/auth/session";
@@ -48,8 +49,8 @@ async function HomeownerPanel({ user }: { user: CurrentUser }) {
                 {p.title}
               </Link>
               <span className="text-sm text-slate-600">
-                {p.status}
-                {p.openRequests ? ` · ${p.openRequests} open request(s)` : ""}
+                {labelFor(PROJECT_STATUS_LABELS, p.status)}
+                {p.openRequests ? ` · ${plural(p.openRequests, "open request")}` : ""}
               </span>
             </li>
           ))}

@@ -1,3 +1,5 @@
+import { formatDate } from "@/lib/labels";
+import { CREDENTIAL_STATUS_LABELS, plural } from "@/lib/labels";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { pageUser } from "@/lib/server/auth/session";
@@ -72,11 +74,12 @@ export default async function CredentialQueuePage({
           <label className="text-sm font-semibold">
             Status
             <select name="status" defaultValue={query.status} className={inputClass}>
-              {["pending", "verified", "rejected", "expired", "all"].map((s) => (
+              {(["pending", "verified", "rejected", "expired"] as const).map((s) => (
                 <option key={s} value={s}>
-                  {s}
+                  {CREDENTIAL_STATUS_LABELS[s]}
                 </option>
               ))}
+              <option value="all">All</option>
             </select>
           </label>
           <label className="text-sm font-semibold">
@@ -105,11 +108,12 @@ export default async function CredentialQueuePage({
         </form>
       </Card>
       <p className="text-slate-600">
-        {total} credential(s) · page {query.page} of {pages}
+        {plural(total, "credential")} · page {query.page} of {pages}
       </p>
       <div className="overflow-x-auto rounded-card border border-slate-200 bg-white">
-        <table className="w-full text-left">
-          <thead className="border-b border-slate-200 text-sm text-slate-600">
+        {/* On phones each row stacks into a block, so the decision is never off-screen. */}
+        <table className="w-full text-left max-md:block">
+          <thead className="border-b border-slate-200 text-sm text-slate-600 max-md:hidden">
             <tr>
               <th scope="col" className="py-2 pl-4 pr-3">
                 Reviewer
@@ -126,7 +130,7 @@ export default async function CredentialQueuePage({
               </th>
             </tr>
           </thead>
-          <tbody>
+          <tbody className="max-md:block">
             {rows.length === 0 ? (
               <tr>
                 <td colSpan={7} className="p-4">
@@ -137,10 +141,10 @@ export default async function CredentialQueuePage({
               rows.map((c) => (
                 <tr
                   key={c.id}
-                  className="border-b border-slate-100 align-top"
+                  className="border-b border-slate-100 align-top max-md:block max-md:py-2"
                   data-credential={c.id}
                 >
-                  <td className="py-3 pl-4 pr-3">
+                  <td className="py-3 pl-4 pr-3 max-md:block max-md:py-1">
                     <Link
                       className="font-semibold underline"
                       href={`/admin/reviewers/${c.reviewerId}`}
@@ -149,8 +153,10 @@ export default async function CredentialQueuePage({
                     </Link>
                     <div className="text-sm text-slate-600">{c.reviewerEmail}</div>
                   </td>
-                  <td className="py-3 pr-3">{credentialName(c.kind)}</td>
-                  <td className="py-3 pr-3">
+                  <td className="py-3 pr-3 max-md:block max-md:px-4 max-md:py-1">
+                    {credentialName(c.kind)}
+                  </td>
+                  <td className="py-3 pr-3 max-md:block max-md:px-4 max-md:py-1">
                     {c.issuer}
                     <div className="font-mono text-sm">{c.number}</div>
                     {c.evidenceAttachmentId ? (
@@ -166,18 +172,30 @@ export default async function CredentialQueuePage({
                       <div className="text-xs text-slate-500">no document uploaded</div>
                     )}
                   </td>
-                  <td className="py-3 pr-3">{c.expiresOn}</td>
-                  <td className="py-3 pr-3">
+                  <td className="whitespace-nowrap py-3 pr-3 max-md:block max-md:px-4 max-md:py-1">
+                    <span className="md:hidden">Expires </span>
+                    {formatDate(c.expiresOn)}
+                  </td>
+                  <td className="py-3 pr-3 max-md:block max-md:px-4 max-md:py-1">
                     <CredentialStatus status={c.status} />
                     {c.adminReason ? <div className="mt-1 text-sm">{c.adminReason}</div> : null}
                   </td>
-                  <td className="py-3 pr-3 text-sm">{c.createdAt.slice(0, 16)}</td>
-                  <td className="min-w-72 py-3 pr-4">
-                    <CredentialDecision
-                      credentialId={c.id}
-                      expiresOn={c.expiresOn}
-                      label={`${credentialName(c.kind)} of ${c.reviewerName}`}
-                    />
+                  <td className="whitespace-nowrap py-3 pr-3 text-sm max-md:block max-md:px-4 max-md:py-1">
+                    <span className="md:hidden">Submitted </span>
+                    {c.createdAt.slice(0, 16)}
+                  </td>
+                  <td className="py-3 pr-4 max-md:block max-md:px-4 md:min-w-72">
+                    {c.status === "pending" ? (
+                      <CredentialDecision
+                        credentialId={c.id}
+                        expiresOn={c.expiresOn}
+                        label={`${credentialName(c.kind)} of ${c.reviewerName}`}
+                      />
+                    ) : (
+                      <span className="text-sm text-slate-600">
+                        {CREDENTIAL_STATUS_LABELS[c.status]}: no decision waiting
+                      </span>
+                    )}
                   </td>
                 </tr>
               ))

@@ -1,3 +1,4 @@
+import { labelFor, OUTBOX_STATUS_LABELS } from "@/lib/labels";
 import type { Metadata } from "next";
 import { pageUser } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
@@ -36,7 +37,7 @@ export default async function OutboxPage() {
                   <td className="py-1 pr-2">{r.createdAt.slice(0, 16)}</td>
                   <td className="pr-2">{r.toAddress}</td>
                   <td className="pr-2">{r.template}</td>
-                  <td className="pr-2 font-semibold">{r.status}</td>
+                  <td className="pr-2 font-semibold">{labelFor(OUTBOX_STATUS_LABELS, r.status)}</td>
                   <td className="pr-2">{r.attempts}</td>
                   <td className="font-mono text-xs">{r.lastError ?? ""}</td>
                 </tr>

@@ -1,3 +1,4 @@
+import { SERVICE_LABELS } from "@/lib/labels";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
@@ -28,7 +29,7 @@ import { JobAftercare } from "@/components/aftercare/job-aftercare";
 
 export const metadata: Metadata = { title: "Job" };
 
-const SERVICE = { remote_check: "Remote design check", site_visit: "Site visit" } as const;
+const SERVICE = SERVICE_LABELS;
 
 const orNotFound = (err: unknown): never => {
   if (err instanceof HttpError && (err.status === 404 || err.status === 403)) notFound();

@@ -1,3 +1,5 @@
+import { labelFor, REQUEST_STATUS_LABELS, serviceLabel } from "@/lib/labels";
+import { env } from "@/lib/env";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
@@ -90,14 +92,14 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
                 className="flex flex-wrap items-center gap-3 py-3"
                 data-request={r.status}
               >
-                <span className="font-semibold">
-                  {r.kind === "site_visit" ? "Site visit" : "Remote design check"}
-                </span>
+                <span className="font-semibold">{serviceLabel(r.kind)}</span>
                 <span>
                   {formatMoney(r.budgetMinMinor, r.currency)}–
                   {formatMoney(r.budgetMaxMinor, r.currency)}
                 </span>
-                <span className="rounded-full bg-slate-100 px-2 py-0.5 text-sm">{r.status}</span>
+                <span className="rounded-full bg-slate-100 px-2 py-0.5 text-sm">
+                  {labelFor(REQUEST_STATUS_LABELS, r.status)}
+                </span>
                 <span className="text-sm text-slate-600">
                   {r.status === "open"
                     ? `open until ${r.expiresAt.slice(0, 10)}`
@@ -130,6 +132,7 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
                 Edit this request
               </summary>
               <RequestForm
+                currency={env().CURRENCY}
                 projectId={project.id}
                 existing={{
                   id: open.id,
@@ -147,7 +150,13 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
             </details>
           </div>
         ) : complete ? (
-          <RequestForm projectId={project.id} />
+          <RequestForm
+            projectId={project.id}
+            currency={env().CURRENCY}
+            stops={result.findings
+              .filter((f) => f.level === "stop")
+              .map((f) => ({ title: f.title, action: f.action }))}
+          />
         ) : (
           <p>Finish the description to ask for a review.</p>
         )}

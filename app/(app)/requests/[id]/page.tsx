@@ -1,3 +1,4 @@
+import { formatDate } from "@/lib/labels";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { notFound } from "next/navigation";
@@ -11,6 +12,13 @@ import {
 } from "@/lib/data/quotes";
 import { runLoopCheck } from "@/lib/calc/loop-check";
 import { regionName } from "@/lib/regions";
+import {
+  labelFor,
+  PHOTO_TAG_LABELS,
+  QUOTE_STATUS_LABELS,
+  REQUEST_STATUS_LABELS,
+  serviceLabel,
+} from "@/lib/labels";
 import { formatMoney } from "@/lib/money";
 import { Card } from "@/components/ui/card";
 import { ActionForm } from "@/components/ui/action-form";
@@ -48,13 +56,15 @@ async function ReviewerView({ user, requestId }: { user: CurrentUser; requestId:
   return (
     <div className="space-y-6">
       <h1 className="text-3xl font-bold">
-        {r.kind === "site_visit" ? "Site visit" : "Remote design check"} · {regionName(r.region)}
+        {serviceLabel(r.kind)} · {regionName(r.region)}
       </h1>
       <Card>
         <p className="font-semibold">
           Budget {formatMoney(r.budgetMinMinor, r.currency)}–
           {formatMoney(r.budgetMaxMinor, r.currency)}
-          {r.windowStart ? ` · visit between ${r.windowStart} and ${r.windowEnd}` : ""}
+          {r.windowStart
+            ? ` · visit between ${formatDate(r.windowStart)} and ${formatDate(r.windowEnd)}`
+            : ""}
         </p>
         <h2 className="mt-3 text-lg font-bold">The homeowner asks</h2>
         <p className="whitespace-pre-line">{r.questions}</p>
@@ -67,13 +77,29 @@ async function ReviewerView({ user, requestId }: { user: CurrentUser; requestId:
       </Card>
       <Card>
         <h2 className="mb-3 text-xl font-bold">Sketch and photos</h2>
-        <ul className="grid gap-3 sm:grid-cols-3">
+        <ul className="grid grid-cols-2 gap-3 sm:grid-cols-3">
           {r.files.map((f) => (
             <li key={f.id}>
-              <a className="underline" href={`/api/files/${f.id}`} target="_blank" rel="noreferrer">
-                {f.purpose === "sketch" ? "System sketch" : (f.caption ?? f.fileName)}
+              <a
+                className="group block space-y-1"
+                href={`/api/files/${f.id}`}
+                target="_blank"
+                rel="noreferrer"
+              >
+                {f.mimeType.startsWith("image/") ? (
+                  // eslint-disable-next-line @next/next/no-img-element -- a private file served by our own route
+                  <img
+                    src={`/api/files/${f.id}?variant=thumbnail`}
+                    alt={f.purpose === "sketch" ? "System sketch" : (f.caption ?? f.fileName)}
+                    loading="lazy"
+                    className="aspect-[4/3] w-full rounded-lg border border-slate-200 bg-slate-100 object-cover"
+                  />
+                ) : null}
+                <span className="block font-semibold underline">
+                  {f.purpose === "sketch" ? "System sketch" : (f.caption ?? f.fileName)}
+                </span>
               </a>
-              <span className="ml-1 text-sm text-slate-600">{f.tag ?? ""}</span>
+              <span className="text-sm text-slate-600">{labelFor(PHOTO_TAG_LABELS, f.tag)}</span>
             </li>
           ))}
           {r.files.length === 0 ? <li>No files uploaded.</li> : null}
@@ -81,16 +107,39 @@ async function ReviewerView({ user, requestId }: { user: CurrentUser; requestId:
       </Card>
       <Card>
         <h2 className="mb-3 text-xl font-bold">
-          {r.myQuote ? `Your quote (${r.myQuote.status})` : "Quote"}
+          {r.myQuote
+            ? `Your quote (${labelFor(QUOTE_STATUS_LABELS, r.myQuote.status).toLowerCase()})`
+            : "Quote"}
         </h2>
         {r.myQuote?.status === "accepted" ? (
           <p className="text-level-ok">The homeowner accepted your quote.</p>
+        ) : r.myQuote?.status === "declined" ? (
+          <div className="space-y-2" data-testid="quote-declined">
+            <p className="font-semibold">
+              {r.status === "awarded"
+                ? "The homeowner chose another quote."
+                : "The homeowner declined your quote."}
+            </p>
+            {r.myQuote.declineReason ? <p>Their reason: “{r.myQuote.declineReason}”</p> : null}
+            <p className="text-sm text-slate-700">
+              Your messages with them stay below.{" "}
+              <Link className="underline" href="/board">
+                Find other requests on the board
+              </Link>
+              .
+            </p>
+          </div>
         ) : (
           <>
             <div className="mb-3">
               <PayoutNotice ready={payout.ready} />
             </div>
-            <QuoteForm requestId={r.id} siteVisit={r.kind === "site_visit"} current={r.myQuote} />
+            <QuoteForm
+              requestId={r.id}
+              siteVisit={r.kind === "site_visit"}
+              current={r.myQuote}
+              currency={r.currency}
+            />
             {r.myQuote ? (
               <ActionForm
                 action={takeBackQuote}
@@ -125,7 +174,7 @@ async function HomeownerView({ user, requestId }: { user: CurrentUser; requestId
         <Link className="underline" href={`/projects/${request.projectId}`}>
           Back to the project
         </Link>{" "}
-        · request {request.status}
+        · {labelFor(REQUEST_STATUS_LABELS, request.status)}
       </p>
       {quotes.length === 0 ? (
         <Card>
@@ -133,7 +182,12 @@ async function HomeownerView({ user, requestId }: { user: CurrentUser; requestId
         </Card>
       ) : null}
       {quotes.length ? (
-        <QuoteTable requestId={requestId} quotes={quotes} open={request.status === "open"} />
+        <QuoteTable
+          requestId={requestId}
+          quotes={quotes}
+          open={request.status === "open"}
+          kind={request.kind}
+        />
       ) : null}
       {quotes.map((q) => (
         <Card key={`thread-${q.id}`}>

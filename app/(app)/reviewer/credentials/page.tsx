@@ -1,3 +1,4 @@
+import { formatDate } from "@/lib/labels";
 import type { Metadata } from "next";
 import { pageUser } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
@@ -48,7 +49,7 @@ export default async function CredentialsPage() {
                     <br />
                     <span className="font-mono text-sm">{c.number}</span>
                   </td>
-                  <td>{c.expiresOn}</td>
+                  <td className="whitespace-nowrap">{formatDate(c.expiresOn)}</td>
                   <td>
                     <CredentialStatus status={c.status} />
                     {c.adminReason ? <p className="mt-1 text-sm">Reason: {c.adminReason}</p> : null}

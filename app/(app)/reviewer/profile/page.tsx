@@ -1,3 +1,4 @@
+import { env } from "@/lib/env";
 import type { Metadata } from "next";
 import Link from "next/link";
 import { pageUser } from "@/lib/server/auth/session";
@@ -23,7 +24,7 @@ export default async function ReviewerProfilePage() {
         ) : null}
       </p>
       <Card>
-        <ProfileForm profile={profile} />
+        <ProfileForm profile={profile} currency={env().CURRENCY} />
       </Card>
     </div>
   );

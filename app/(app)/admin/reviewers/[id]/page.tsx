@@ -1,3 +1,4 @@
+import { formatDate } from "@/lib/labels";
 import type { Metadata } from "next";
 import { notFound } from "next/navigation";
 import { pageUser } from "@/lib/server/auth/session";
@@ -59,7 +60,7 @@ export default async function ReviewerRecordPage({ params }: { params: Promise<{
               <CredentialStatus status={c.status} />{" "}
               <span className="font-medium">{credentialName(c.kind)}</span>
               <span className="text-sm text-slate-600">
-                expires {c.expiresOn}
+                expires {formatDate(c.expiresOn)}
                 {c.adminReason ? ` · ${c.adminReason}` : ""}
               </span>
             </li>
