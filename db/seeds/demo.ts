@@ -245,6 +245,9 @@ export async function seedDemo(knex: Knex, svc: JobServices = jobServices()): Pr
         kind: siteVisit ? "site_visit" : "remote_check",
         questions:
           "Is the vessel big enough for steam, and is the pre-charge right for the static height? (demo)",
+        // Where the loop check found a `stop`, the homeowner has read why and confirmed the loop
+        // will not be filled or run until it is resolved (the posting form's safety gate).
+        acknowledgeStop: true,
         budgetMinPounds: 60 + i * 5,
         budgetMaxPounds: 150 + i * 10,
         ...(siteVisit
