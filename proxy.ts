@@ -33,7 +33,8 @@ const plain = (status: number, message: string) =>
 
 /**
  * A server action POST that Next.js would refuse with a 500: from a foreign Origin (its CSRF
- * check) or with a body over the limit. Refused here with 403 or 413 and a plain message.
+ * check) or with a body over the limit (or of unknown length). Refused here with 403, 413 or 411
+ * and a plain message.
  */
 function refuseAction(req: NextRequest): NextResponse | null {
   // Next.js treats a POST with a next-action header, or any multipart POST (a form without
@@ -54,8 +55,12 @@ function refuseAction(req: NextRequest): NextResponse | null {
     if (!originHost || originHost !== host)
       return plain(403, "This form was sent from another site, so it was refused.");
   }
-  const length = Number(req.headers.get("content-length") ?? "0");
-  if (length > ACTION_BODY_LIMIT)
+  const declared = req.headers.get("content-length");
+  // Browsers always declare the length of an action's body; without it, Next.js would read up to
+  // the limit and then fail with a 500.
+  if (declared === null)
+    return plain(411, "Send the length of what you send (the Content-Length header).");
+  if (Number(declared) > ACTION_BODY_LIMIT)
     return plain(413, "What you sent is larger than 1 MB. Send less at once.");
   return null;
 }
