@@ -159,7 +159,7 @@ describe("security probes against the built app", () => {
 
   it("refuses JSON nested 5,000 deep on the upload route with 400, signed out", async () => {
     const deep = "[".repeat(5000) + "]".repeat(5000);
-    const res = await send("/api/uploadthing?slug=projectFile&actionType=upload", {
+    const res = await send("/api/uploadthing?slug=photo&actionType=upload", {
       method: "POST",
       headers: { "content-type": "application/json" },
       body: deep,
