@@ -22,12 +22,57 @@ const needsSignIn = (path: string) =>
 
 const signInRedirect = withAuth({ pages: { signIn: "/sign-in" }, secret: env().NEXTAUTH_SECRET });
 
+/** Next.js's default server action body limit (1 MB, `experimental.serverActions.bodySizeLimit`). */
+export const ACTION_BODY_LIMIT = 1024 * 1024;
+
+const plain = (status: number, message: string) =>
+  new NextResponse(message, {
+    status,
+    headers: { "content-type": "text/plain; charset=utf-8", "cache-control": "no-store" },
+  });
+
+/**
+ * A server action POST that Next.js would refuse with a 500: from a foreign Origin (its CSRF
+ * check) or with a body over the limit (or of unknown length). Refused here with 403, 413 or 411
+ * and a plain message.
+ */
+function refuseAction(req: NextRequest): NextResponse | null {
+  // Next.js treats a POST with a next-action header, or any multipart POST (a form without
+  // JavaScript), as a possible action.
+  const multipart = (req.headers.get("content-type") ?? "").startsWith("multipart/form-data");
+  if (req.method !== "POST" || (!req.headers.has("next-action") && !multipart)) return null;
+  const origin = req.headers.get("origin");
+  if (origin) {
+    let originHost: string | null = null;
+    try {
+      originHost = new URL(origin).host;
+    } catch {
+      originHost = null;
+    }
+    // The host Next.js compares against: the first X-Forwarded-Host, else Host.
+    const host =
+      req.headers.get("x-forwarded-host")?.split(",")[0]?.trim() || req.headers.get("host");
+    if (!originHost || originHost !== host)
+      return plain(403, "This form was sent from another site, so it was refused.");
+  }
+  const declared = req.headers.get("content-length");
+  // Browsers always declare the length of an action's body; without it, Next.js would read up to
+  // the limit and then fail with a 500.
+  if (declared === null)
+    return plain(411, "Send the length of what you send (the Content-Length header).");
+  if (Number(declared) > ACTION_BODY_LIMIT)
+    return plain(413, "What you sent is larger than 1 MB. Send less at once.");
+  return null;
+}
+
 /**
  * Every page: the cheap redirect to sign-in for app pages, then a Content-Security-Policy with
  * a fresh nonce. The nonce goes on the request too, where Next.js finds it and puts it on the
  * scripts it renders; the response carries the policy the browser enforces.
  */
 export default async function proxy(req: NextRequest, event: NextFetchEvent) {
+  const refused = refuseAction(req);
+  if (refused) return refused;
   if (needsSignIn(req.nextUrl.pathname)) {
     const redirect = await signInRedirect(req as NextRequestWithAuth, event);
     if (redirect) return redirect;

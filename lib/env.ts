@@ -26,6 +26,11 @@ const baseSchema = z.object({
     .regex(/^[A-Za-z0-9_]+$/)
     .default("loopwright_test"),
   NEXTAUTH_SECRET: z.string().min(16).default("local-dev-secret-not-for-production"),
+  /**
+   * How many proxies in front of the app append to X-Forwarded-For. 0: the header is ignored and
+   * the client address is the connection's own (lib/server/client-address.ts).
+   */
+  TRUSTED_PROXY_HOPS: z.coerce.number().int().min(0).max(10).default(0),
   CURRENCY: z.string().length(3).toUpperCase().default("GBP"),
   /** The time zone people's times are typed and shown in (site visits); an IANA name. */
   APP_TIME_ZONE: z

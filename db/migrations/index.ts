@@ -6,6 +6,8 @@ import * as operations from "./20261201_0004_operations";
 import * as requestSnapshots from "./20261202_0010_request_snapshots";
 import * as payments from "./20261202_0011_payments";
 import * as thumbnails from "./20261202_0012_thumbnails";
+import * as rateLimits from "./20261202_0020_rate_limits";
+import * as sessionVersion from "./20261202_0021_session_version";
 import * as review from "./20261202_0030_review";
 import * as mailAttachments from "./20261202_0050_mail_attachments";
 
@@ -22,6 +24,8 @@ const MIGRATIONS: Record<string, Knex.Migration> = {
   "20261202_0010_request_snapshots.ts": requestSnapshots,
   "20261202_0011_payments.ts": payments,
   "20261202_0012_thumbnails.ts": thumbnails,
+  "20261202_0020_rate_limits.ts": rateLimits,
+  "20261202_0021_session_version.ts": sessionVersion,
   "20261202_0030_review.ts": review,
   "20261202_0050_mail_attachments.ts": mailAttachments,
 };

@@ -7,6 +7,7 @@ import { audit } from "./audit";
 import type { Db, Trx } from "./db";
 import { parseInput, unprocessable } from "./errors";
 import { enqueueEmail } from "./outbox";
+import { limitPasswordReset, limitSignUp } from "./rate-limit";
 import { consumeToken, issueToken } from "./tokens";
 
 export type { Role } from "./actor";
@@ -20,6 +21,7 @@ export interface AuthUser {
   email: string;
   role: Role;
   displayName: string;
+  sessionVersion: number;
 }
 
 function refuseCommonPassword(password: string): void {
@@ -45,10 +47,19 @@ async function queueVerification(
   });
 }
 
-/** Sign-up: the account, and the verification e-mail in the same transaction. */
-export async function createAccount(db: Db, input: unknown, appUrl: string): Promise<AuthUser> {
+/**
+ * Sign-up: the account, and the verification e-mail in the same transaction. Limited per client
+ * address and per e-mail address (lib/data/rate-limit.ts); the limit counts valid attempts only.
+ */
+export async function createAccount(
+  db: Db,
+  input: unknown,
+  appUrl: string,
+  clientAddress: string,
+): Promise<AuthUser> {
   const v = parseInput(signUpSchema, input);
   refuseCommonPassword(v.password);
+  await limitSignUp(db, clientAddress, v.email);
   const hash = await bcrypt.hash(v.password, BCRYPT_ROUNDS);
   try {
     return await db.transaction(async (trx) => {
@@ -61,7 +72,13 @@ export async function createAccount(db: Db, input: unknown, appUrl: string): Pro
       const userId = Number(id);
       await queueVerification(trx, { id: userId, email: v.email, name: v.displayName }, appUrl);
       await audit(trx, userId, "user.signed_up", "user", userId, { role: v.role });
-      return { id: userId, email: v.email, role: v.role, displayName: v.displayName };
+      return {
+        id: userId,
+        email: v.email,
+        role: v.role,
+        displayName: v.displayName,
+        sessionVersion: 0,
+      };
     });
   } catch (err) {
     if ((err as { code?: string }).code === "ER_DUP_ENTRY") {
@@ -93,7 +110,13 @@ export async function createAdminAccount(db: Db, input: unknown): Promise<AuthUs
       });
       const userId = Number(id);
       await audit(trx, null, "user.admin_created", "user", userId);
-      return { id: userId, email: v.email, role: "admin" as const, displayName: v.displayName };
+      return {
+        id: userId,
+        email: v.email,
+        role: "admin" as const,
+        displayName: v.displayName,
+        sessionVersion: 0,
+      };
     });
   } catch (err) {
     if ((err as { code?: string }).code === "ER_DUP_ENTRY")
@@ -112,10 +135,26 @@ export async function authenticate(
 ): Promise<AuthUser | null> {
   const row = await db("users")
     .where({ email: email.trim().toLowerCase() })
-    .first("id", "email", "role", "display_name", "password_hash");
+    .first("id", "email", "role", "display_name", "password_hash", "session_version");
   const ok = await bcrypt.compare(password, row?.password_hash ?? DUMMY_HASH);
   if (!row || !ok) return null;
-  return { id: Number(row.id), email: row.email, role: row.role, displayName: row.display_name };
+  return {
+    id: Number(row.id),
+    email: row.email,
+    role: row.role,
+    displayName: row.display_name,
+    sessionVersion: Number(row.session_version),
+  };
+}
+
+/**
+ * End every session of a user: the version in their tokens no longer matches. With `from`, only
+ * when the version is still that one (a second sign-out of an old cookie changes nothing).
+ */
+export async function endSessions(db: Db, userId: number, from?: number): Promise<void> {
+  const q = db("users").where({ id: userId });
+  if (from !== undefined) q.where({ session_version: from });
+  await q.increment("session_version", 1);
 }
 
 /** Confirm an address with the link's token; false when the link is unknown, used or expired. */
@@ -130,8 +169,17 @@ export async function verifyEmail(db: Db, token: string): Promise<boolean> {
   });
 }
 
-/** Always succeeds from the caller's view: whether the address exists is never revealed. */
-export async function requestPasswordReset(db: Db, email: string, appUrl: string): Promise<void> {
+/**
+ * Always succeeds from the caller's view: whether the address exists is never revealed. Limited
+ * per client address and per typed e-mail address, known or not (429, lib/data/rate-limit.ts).
+ */
+export async function requestPasswordReset(
+  db: Db,
+  email: string,
+  appUrl: string,
+  clientAddress: string,
+): Promise<void> {
+  await limitPasswordReset(db, clientAddress, email);
   await db.transaction(async (trx) => {
     const user = await trx("users")
       .where({ email: email.trim().toLowerCase() })
@@ -158,6 +206,8 @@ export async function resetPassword(db: Db, input: unknown): Promise<void> {
         token: ["This link has expired or was already used: ask for a new one"],
       });
     await trx("users").where({ id: userId }).update({ password_hash: hash });
+    // Whoever knew the old password may hold a session: the new hash bumps users.session_version
+    // (a trigger, db/migrations/20261202_0021_session_version.ts), which ends it.
     await audit(trx, userId, "user.password_reset", "user", userId);
   });
 }
@@ -191,11 +241,19 @@ export interface SessionUser {
   suspended: boolean;
 }
 
-/** The user a session names, read fresh, so a suspension or role change takes effect at once. */
-export async function getSessionUser(db: Db, id: number): Promise<SessionUser | null> {
+/**
+ * The user a session names, read fresh, so a suspension or role change takes effect at once;
+ * null when the session's version is older than the user's (an ended session).
+ */
+export async function getSessionUser(
+  db: Db,
+  id: number,
+  sessionVersion: number,
+): Promise<SessionUser | null> {
   const row = await db("users as u")
     .leftJoin("reviewer_profiles as rp", "rp.user_id", "u.id")
     .where("u.id", id)
+    .where("u.session_version", sessionVersion)
     .first("u.id", "u.email", "u.role", "u.display_name", "u.email_verified_at", "rp.suspended_at");
   if (!row) return null;
   return {

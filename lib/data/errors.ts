@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { idSchema } from "@/lib/validation/id";
 
 export type FieldErrors = Record<string, string[]>;
 
@@ -50,8 +51,8 @@ export function parseInput<S extends z.ZodType>(
   return parsed.data;
 }
 
-/** A database id from the outside world (a route segment, an action argument). */
-export const idSchema = z.coerce.number().int().positive().max(Number.MAX_SAFE_INTEGER);
+/** A database id from the outside world (lib/validation/id.ts): digits or a whole number only. */
+export { idSchema };
 
 /** An id, or 404: a malformed id names nothing that exists. */
 export function parseId(value: unknown, what = "record"): number {

@@ -438,6 +438,13 @@ export async function notifyNewMessage(
       "s.display_name as sender_name",
     );
   if (!m) throw new Error(`message ${messageId} not found`);
+  const toReviewer = m.sender_id === m.homeowner_id;
+  // Before the homeowner accepts their quote, a reviewer learns neither their name nor the project.
+  const accepted =
+    !toReviewer ||
+    (await trx("quotes")
+      .where({ request_id: m.request_id, reviewer_id: m.reviewer_id, status: "accepted" })
+      .first("id")) !== undefined;
   const recipientId = m.sender_id === m.homeowner_id ? m.reviewer_id : m.homeowner_id;
   const recipient = await trx("users")
     .where({ id: recipientId })
@@ -463,10 +470,11 @@ export async function notifyNewMessage(
     template: "new_message",
     payload: {
       name: recipient.display_name,
-      senderName: m.sender_name,
-      projectTitle: m.title,
+      senderName: accepted ? m.sender_name : "The homeowner",
+      ...(accepted ? { projectTitle: m.title } : {}),
       preview,
-      url: `${appUrl}/requests/${m.request_id}/messages`,
+      // The request page holds the conversation, for the homeowner and the reviewer alike.
+      url: `${appUrl}/requests/${m.request_id}`,
     },
     dedupeKey: `message-${m.id}`,
   });

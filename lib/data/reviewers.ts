@@ -3,6 +3,7 @@ import { REQUIRED_CREDENTIAL_KINDS } from "@/lib/credentials";
 import { sqlDate, sqlDateTime } from "@/lib/time";
 import type { Actor } from "./actor";
 import { audit, auditMany } from "./audit";
+import { endSessions } from "./accounts";
 import type { Db } from "./db";
 import {
   notifyCredentialExpiring,
@@ -271,6 +272,8 @@ export async function setSuspension(db: Db, actor: Actor, input: unknown): Promi
           ? { suspended_at: sqlDateTime(), suspended_reason: v.reason }
           : { suspended_at: null, suspended_reason: null },
       );
+    // A suspended reviewer's sessions end now, on every device.
+    if (v.suspend) await endSessions(trx, v.reviewerId);
     await audit(
       trx,
       actor.id,

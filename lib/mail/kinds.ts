@@ -2,6 +2,7 @@
 export interface TemplatePayloads {
   verify_email: { name: string; url: string };
   reset_password: { name: string; url: string };
+  sign_in_failures: { name: string; count: number; url: string };
   new_quote: {
     name: string;
     projectTitle: string;
@@ -84,7 +85,8 @@ export interface TemplatePayloads {
   new_message: {
     name: string;
     senderName: string;
-    projectTitle: string;
+    /** Left out for a reviewer before the homeowner accepts their quote. */
+    projectTitle?: string;
     preview: string;
     url: string;
   };

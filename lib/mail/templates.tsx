@@ -38,6 +38,15 @@ const CONTENT: { [K in TemplateName]: (p: TemplatePayloads[K]) => Content } = {
     ],
     action: { label: "Choose a new password", url: p.url },
   }),
+  sign_in_failures: (p) => ({
+    subject: "Failed sign-ins on your Loopwright account",
+    heading: "Someone is trying to sign in to your account",
+    paragraphs: [
+      `Hello ${p.name}, there have been ${p.count} or more sign-ins with a wrong password on your account today.`,
+      "If it was you, nothing needs doing. If not, your account is still safe while the password is strong; choose a new one to be sure. Sign-ins from your own network are not blocked by these attempts.",
+    ],
+    action: { label: "Choose a new password", url: p.url },
+  }),
   new_quote: (p) => ({
     subject: `New quote for ${p.projectTitle}`,
     heading: "You have a new quote",
@@ -213,7 +222,9 @@ const CONTENT: { [K in TemplateName]: (p: TemplatePayloads[K]) => Content } = {
     action: { label: "Renew it", url: p.url },
   }),
   new_message: (p) => ({
-    subject: `New message about ${p.projectTitle}`,
+    subject: p.projectTitle
+      ? `New message about ${p.projectTitle}`
+      : "New message about your quote",
     heading: `${p.senderName} sent you a message`,
     paragraphs: [
       `“${p.preview}”`,

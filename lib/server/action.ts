@@ -1,10 +1,12 @@
 import "server-only";
+import { headers } from "next/headers";
 import { redirect } from "next/navigation";
 import type { z } from "zod";
 import { HttpError, fieldErrorsOf } from "@/lib/data/errors";
 import type { Role } from "@/lib/data/actor";
 import { getCurrentUser, type CurrentUser } from "./auth/session";
 import { isDatabaseDown } from "./http";
+import { clientAddress } from "./client-address";
 
 import type { ActionState } from "@/lib/types/action";
 
@@ -56,6 +58,42 @@ export async function runAction<S extends z.ZodType, R>(
   }
   opts.after?.(result, parsed.data);
   return { ok: true, message: typeof opts.done === "function" ? opts.done(result) : opts.done };
+}
+
+interface PublicActionOptions<S extends z.ZodType, R> {
+  schema: S;
+  input: unknown;
+  values?: Record<string, string | string[]>;
+  /** The one lib/data call, with the parsed input and the client's address (for rate limits). */
+  run: (input: z.output<S>, client: { address: string }) => Promise<R>;
+  done?: string;
+  after?: (result: R, input: z.output<S>) => void;
+}
+
+/**
+ * runAction for people who are not signed in (sign-up, password reset, e-mail confirmation):
+ * the same parse-first shape and answers, with no actor.
+ */
+export async function publicAction<S extends z.ZodType, R>(
+  opts: PublicActionOptions<S, R>,
+): Promise<ActionState> {
+  const values = opts.values;
+  const parsed = opts.schema.safeParse(opts.input);
+  if (!parsed.success)
+    return {
+      ok: false,
+      message: "Some details need attention.",
+      fieldErrors: fieldErrorsOf(parsed.error),
+      values,
+    };
+  let result: R;
+  try {
+    result = await opts.run(parsed.data, { address: clientAddress(await headers()) });
+  } catch (err) {
+    return failure(err, values);
+  }
+  opts.after?.(result, parsed.data);
+  return { ok: true, ...(opts.done ? { message: opts.done } : {}) };
 }
 
 /** An expected refusal becomes its message; anything else is logged and stays vague. */

@@ -33,3 +33,47 @@ export function isDatabaseDown(err: unknown): boolean {
     name === "KnexTimeoutError"
   );
 }
+
+/**
+ * How deeply a JSON text nests (arrays and objects), counted without parsing, so a body nested
+ * thousands deep is refused before any recursive parser or validator meets it.
+ */
+export function jsonDepth(text: string): number {
+  let depth = 0;
+  let max = 0;
+  let inString = false;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (inString) {
+      if (c === 92)
+        i++; // backslash: skip the escaped character
+      else if (c === 34) inString = false;
+    } else if (c === 34) inString = true;
+    else if (c === 91 || c === 123) max = Math.max(max, ++depth);
+    else if (c === 93 || c === 125) depth--;
+  }
+  return max;
+}
+
+/**
+ * A route's JSON body checked before the handler sees it: at most `maxBytes` (413) and `maxDepth`
+ * levels (400), valid JSON (400). Answers null when the body is fine, else the refusal.
+ */
+export async function refuseBadJson(
+  req: Request,
+  { maxBytes, maxDepth }: { maxBytes: number; maxDepth: number },
+): Promise<Response | null> {
+  const declared = Number(req.headers.get("content-length") ?? "0");
+  if (declared > maxBytes) return errorResponse(new HttpError(413, "The request is too large."));
+  const text = await req.clone().text();
+  if (text.length > maxBytes) return errorResponse(new HttpError(413, "The request is too large."));
+  if (text.length === 0) return null;
+  if (jsonDepth(text) > maxDepth)
+    return errorResponse(new HttpError(400, "The request nests too deeply."));
+  try {
+    JSON.parse(text);
+  } catch {
+    return errorResponse(new HttpError(400, "The request is not valid JSON."));
+  }
+  return null;
+}

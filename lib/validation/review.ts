@@ -1,4 +1,5 @@
 import { z } from "@/lib/zod";
+import { idSchema } from "./id";
 import { OUTCOMES, VERDICTS } from "@/lib/types/review";
 
 /** Longest note on one checklist item, and longest summary. */
@@ -94,7 +95,7 @@ export const itemAnswerSchema = z
     answerMd: z.string().trim().max(4000, "An answer is at most 4,000 characters").default(""),
     attachmentId: z.preprocess(
       (v) => (v === "" || v === undefined || v === null ? undefined : v),
-      z.coerce.number().int().positive().optional(),
+      idSchema.optional(),
     ),
   })
   .refine((v) => v.answerMd.length > 0 || v.attachmentId !== undefined, {

@@ -1,4 +1,5 @@
 import { z } from "@/lib/zod";
+import { idSchema } from "./id";
 import { REGION_IDS } from "@/lib/regions";
 import { CREDENTIAL_KINDS } from "@/lib/credentials";
 
@@ -55,12 +56,12 @@ export type CredentialInput = z.input<typeof credentialSchema>;
 export const credentialDecisionSchema = z.discriminatedUnion("decision", [
   z.object({
     decision: z.literal("verify"),
-    credentialId: z.coerce.number().int().positive(),
+    credentialId: idSchema,
     expiresOn: z.iso.date({ error: "Enter the expiry date" }),
   }),
   z.object({
     decision: z.literal("reject"),
-    credentialId: z.coerce.number().int().positive(),
+    credentialId: idSchema,
     reason: z
       .string()
       .trim()
@@ -71,7 +72,7 @@ export const credentialDecisionSchema = z.discriminatedUnion("decision", [
 export type CredentialDecisionInput = z.input<typeof credentialDecisionSchema>;
 
 export const suspensionSchema = z.object({
-  reviewerId: z.coerce.number().int().positive(),
+  reviewerId: idSchema,
   suspend: z.boolean(),
   reason: z.string().trim().min(5, "Give a reason (at least 5 characters)").max(2000),
 });

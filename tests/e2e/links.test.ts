@@ -119,8 +119,9 @@ describe("every link in every e-mail, tile and public page opens a real page", (
         password: "a long new password 2026",
       },
       baseUrl,
+      "127.0.0.1",
     );
-    await requestPasswordReset(knex, fresh.email, baseUrl);
+    await requestPasswordReset(knex, fresh.email, baseUrl, "127.0.0.1");
 
     const rows = await knex("email_outbox").select("to_user_id", "template", "payload");
     const seen = new Set(rows.map((r) => r.template as string));

@@ -5,13 +5,14 @@ import { env } from "@/lib/env";
 import { signInSchema } from "@/lib/validation/auth";
 import { safeCallbackPath } from "@/lib/safe-redirect";
 import { db } from "../db";
-import { authenticate } from "@/lib/data/accounts";
+import { authenticate, endSessions } from "@/lib/data/accounts";
 import type { Role } from "@/lib/data/actor";
 
 /**
- * next-auth v4 with e-mail and password. The JWT carries the user id and role; every page,
- * action and route handler still reads the user from the database (lib/server/auth/session.ts),
- * so a suspension or role change takes effect at once.
+ * next-auth v4 with e-mail and password. The JWT carries the user id, role and session version;
+ * every page, action and route handler still reads the user from the database
+ * (lib/server/auth/session.ts) and refuses a token whose version is old, so sign-out, a password
+ * reset, a suspension or a role change ends every copy of earlier sessions.
  */
 export function authOptions(): NextAuthOptions {
   const e = env();
@@ -35,7 +36,13 @@ export function authOptions(): NextAuthOptions {
           if (!parsed.success) return null;
           const user = await authenticate(db(), parsed.data.email, parsed.data.password);
           return user
-            ? { id: String(user.id), email: user.email, name: user.displayName, role: user.role }
+            ? {
+                id: String(user.id),
+                email: user.email,
+                name: user.displayName,
+                role: user.role,
+                sessionVersion: user.sessionVersion,
+              }
             : null;
         },
       }),
@@ -47,13 +54,24 @@ export function authOptions(): NextAuthOptions {
       },
       jwt({ token, user }) {
         if (user) {
+          const u = user as unknown as { role: Role; sessionVersion: number };
           token.uid = Number(user.id);
-          token.role = (user as unknown as { role: Role }).role;
+          token.role = u.role;
+          token.sv = u.sessionVersion;
         }
         return token;
       },
       session({ session, token }) {
-        return { ...session, user: { ...session.user, id: token.uid, role: token.role } };
+        return {
+          ...session,
+          user: { ...session.user, id: token.uid, role: token.role, sv: token.sv ?? 0 },
+        };
+      },
+    },
+    events: {
+      // Signing out ends every copy of this session's cookie, not just the one in this browser.
+      async signOut({ token }) {
+        if (token?.uid) await endSessions(db(), Number(token.uid), token.sv ?? 0);
       },
     },
   };
@@ -63,5 +81,7 @@ declare module "next-auth/jwt" {
   interface JWT {
     uid?: number;
     role?: Role;
+    /** users.session_version when the session began; an older one is no longer a session. */
+    sv?: number;
   }
 }

@@ -12,9 +12,10 @@ export type CurrentUser = SessionUser;
 /** The signed-in user, read fresh from the database, or null. */
 export async function getCurrentUser(): Promise<CurrentUser | null> {
   const session = await getServerSession(authOptions());
-  const id = (session?.user as { id?: number } | undefined)?.id;
-  if (!id) return null;
-  return getSessionUser(db(), id);
+  const user = session?.user as { id?: number; sv?: number } | undefined;
+  if (!user?.id) return null;
+  // The same one-row read as before, now also matching the session version.
+  return getSessionUser(db(), user.id, user.sv ?? 0);
 }
 
 /** For route handlers and actions: 401 when signed out. */

@@ -1,11 +1,9 @@
-import { z } from "zod";
+import { idSchema } from "@/lib/validation/id";
 import { requireRole } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
 import { HttpError } from "@/lib/data/errors";
 import { errorResponse } from "@/lib/server/http";
 import { getCredential } from "@/lib/data/reviewers";
-
-const idSchema = z.coerce.number().int().positive();
 
 /** One credential as JSON: for its reviewer and for admins only. */
 export async function GET(_req: Request, ctx: { params: Promise<{ id: string }> }) {

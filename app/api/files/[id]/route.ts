@@ -1,12 +1,10 @@
-import { z } from "zod";
+import { idSchema } from "@/lib/validation/id";
 import { requireUser } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
 import { HttpError } from "@/lib/data/errors";
 import { errorResponse } from "@/lib/server/http";
 import { getReadableAttachment } from "@/lib/data/files";
 import { fetchStoredFile, uploadConfig } from "@/lib/server/uploads/config";
-
-const idSchema = z.coerce.number().int().positive();
 
 /**
  * A private file, streamed from the upload service after the access check; never a public URL.

@@ -1,11 +1,11 @@
-import { z } from "zod";
+import { idSchema } from "@/lib/validation/id";
 import { requireRole } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
 import { HttpError } from "@/lib/data/errors";
 import { errorResponse } from "@/lib/server/http";
 import { listMessages, postMessage } from "@/lib/data/messages";
 
-const id = z.coerce.number().int().positive();
+const id = idSchema;
 
 async function ids(req: Request, ctx: { params: Promise<{ id: string }> }) {
   const requestId = id.safeParse((await ctx.params).id);
@@ -20,10 +20,10 @@ async function ids(req: Request, ctx: { params: Promise<{ id: string }> }) {
   return { requestId: requestId.data, reviewerId: reviewer?.data };
 }
 
-/** The conversation on a request, polled by the thread view. */
+/** The conversation on a request, polled by the thread view; admins may read it too. */
 export async function GET(req: Request, ctx: { params: Promise<{ id: string }> }) {
   try {
-    const user = await requireRole("homeowner", "reviewer");
+    const user = await requireRole("homeowner", "reviewer", "admin");
     const { requestId, reviewerId } = await ids(req, ctx);
     return Response.json(await listMessages(db(), user, requestId, reviewerId), {
       headers: { "cache-control": "no-store" },
@@ -33,9 +33,10 @@ export async function GET(req: Request, ctx: { params: Promise<{ id: string }> }
   }
 }
 
+/** A new message: the homeowner, or a reviewer whose quote is live or accepted (lib/data). */
 export async function POST(req: Request, ctx: { params: Promise<{ id: string }> }) {
   try {
-    const user = await requireRole("homeowner", "reviewer");
+    const user = await requireRole("homeowner", "reviewer", "admin");
     const { requestId, reviewerId } = await ids(req, ctx);
     const body = await req.json().catch(() => {
       throw new HttpError(400, 'Send JSON: { "body": "…" }');
