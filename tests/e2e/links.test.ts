@@ -84,7 +84,11 @@ describe("every link in every e-mail, tile and public page opens a real page", (
       knex,
       reviewer,
       request.id,
-      { pricePounds: 90, turnaroundDays: 3, scopeMd: "Checklist review." },
+      {
+        pricePounds: 90,
+        turnaroundDays: 3,
+        scopeMd: "Full checklist review with a written report.",
+      },
       baseUrl,
     );
     await postMessage(knex, reviewer, request.id, { body: "A question about the vessel." });
