@@ -93,7 +93,7 @@ describe("the request board in Chromium", () => {
     await rp.getByLabel("Price").fill("0");
     await rp.getByLabel("Turnaround").fill("4");
     await rp
-      .getByLabel("What the review covers (Markdown)")
+      .getByLabel("What the review covers")
       .fill("**Checklist review** of the sketch and photos, with a written report.");
     await rp.getByRole("button", { name: "Send quote" }).click();
     await rp.locator("#f-pricePounds-error", { hasText: /At least 10/ }).waitFor();
@@ -115,7 +115,7 @@ describe("the request board in Chromium", () => {
     // A message from the reviewer appears on the homeowner's open page without a reload.
     await rp.reload();
     await rp
-      .getByLabel("Message (Markdown)")
+      .getByLabel(/^Message/)
       .fill("Could you add a photo of the **vessel** connection?");
     await rp.getByRole("button", { name: "Send message" }).click();
     await hp
