@@ -22,7 +22,7 @@ export async function decideCredentialAction(
     values,
     run: (actor) => decideCredential(db(), actor, values, env().APP_URL),
     done: values.decision === "verify" ? "Verified." : "Rejected.",
-    after: () => revalidatePath("/admin/credentials"),
+    // No revalidation here: the form shows its confirmation first, then refreshes the queue.
   });
 }
 

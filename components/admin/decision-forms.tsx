@@ -1,6 +1,7 @@
 "use client";
 
-import { useActionState } from "react";
+import { useActionState, useEffect } from "react";
+import { useRouter } from "next/navigation";
 import { Button } from "@/components/ui/button";
 import { inputClass } from "@/components/ui/field";
 import { decideCredentialAction, suspensionAction, type AdminFormState } from "./actions";
@@ -23,6 +24,21 @@ export function CredentialDecision({
     { ok: false },
   );
   const message = verifyState.message ?? rejectState.message;
+  const done = verifyState.ok || rejectState.ok;
+  const router = useRouter();
+  // The decided row leaves the queue: say so first, then refresh the list.
+  useEffect(() => {
+    if (!done) return;
+    const timer = setTimeout(() => router.refresh(), 2000);
+    return () => clearTimeout(timer);
+  }, [done, router, verifyState, rejectState]);
+  if (done)
+    return (
+      <p role="status" className="rounded-lg bg-level-ok-bg p-3 font-semibold text-level-ok">
+        {verifyState.ok ? `Verified: ${label}.` : `Rejected: ${label}.`} The reviewer is told by
+        e-mail; this row leaves the queue.
+      </p>
+    );
   return (
     <div className="space-y-2">
       <form

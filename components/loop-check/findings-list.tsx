@@ -48,7 +48,13 @@ export function FindingsList({ findings }: FindingsListProps) {
                             >
                               {v.label}
                             </th>
-                            <td className="py-1 text-right font-mono tabular-nums text-slate-900">
+                            <td
+                              className={
+                                typeof v.value === "number"
+                                  ? "whitespace-nowrap py-1 text-right font-mono tabular-nums text-slate-900"
+                                  : "py-1 text-right font-mono tabular-nums text-slate-900"
+                              }
+                            >
                               {v.value}
                               {v.unit ? ` ${v.unit}` : ""}
                             </td>

@@ -40,7 +40,7 @@ export function LoopCheckForm({ defaultValues }: LoopCheckFormProps) {
 
   const showResults = () => {
     const box = document.getElementById("loop-check-results");
-    box?.scrollIntoView({ behavior: "smooth", block: "start" });
+    box?.scrollIntoView({ block: "start" });
     box?.querySelector<HTMLElement>("#results-title")?.focus({ preventScroll: true });
   };
 

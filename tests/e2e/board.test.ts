@@ -93,7 +93,7 @@ describe("the request board in Chromium", () => {
     await rp.getByLabel("Price").fill("0");
     await rp.getByLabel("Turnaround").fill("4");
     await rp
-      .getByLabel("What the review covers (Markdown)")
+      .getByLabel("What the review covers")
       .fill("**Checklist review** of the sketch and photos, with a written report.");
     await rp.getByRole("button", { name: "Send quote" }).click();
     await rp.locator("#f-pricePounds-error", { hasText: /At least 10/ }).waitFor();
@@ -111,19 +111,19 @@ describe("the request board in Chromium", () => {
     await hp.getByLabel("Password").fill(DEMO_PASSWORD);
     await hp.getByRole("button", { name: "Sign in" }).click();
     await hp.waitForURL(`**/requests/${request.id}`);
-    expect(await hp.locator("strong", { hasText: "Checklist review" }).count()).toBe(1);
+    expect(await hp.locator("strong:visible", { hasText: "Checklist review" }).count()).toBe(1);
     // A message from the reviewer appears on the homeowner's open page without a reload.
     await rp.reload();
     await rp
-      .getByLabel("Message (Markdown)")
+      .getByRole("textbox", { name: /^Message/ })
       .fill("Could you add a photo of the **vessel** connection?");
     await rp.getByRole("button", { name: "Send message" }).click();
     await hp
       .locator("[data-message]", { hasText: "Could you add a photo of the vessel connection?" })
       .waitFor({ timeout: 15_000 });
-    // The comparison table sorts by price on a click.
+    // The comparison table sorts by price on a click, lowest first.
     await hp.getByRole("button", { name: /^Price/ }).click();
-    expect(await hp.locator('th[aria-sort="descending"]').count()).toBe(1);
+    expect(await hp.locator('th[aria-sort="ascending"]').count()).toBe(1);
     await hp.screenshot({ path: "tests/e2e/screenshots/quotes.png", fullPage: true });
     await hp.getByRole("button", { name: /^Accept the quote from/ }).click();
     // The confirmation names the price and what happens next before anything is sent.
