@@ -27,6 +27,8 @@ import {
 } from "./fixtures";
 import { tinyPng } from "./uploads";
 import { signInHttp } from "./session";
+import { paymentsFakeControl } from "./payments";
+import { TEST_PAYMENT_KEYS } from "./fakes";
 
 export const ACTORS = [
   "anonymous",
@@ -112,7 +114,15 @@ export async function storeFile(
   return Number(id);
 }
 
-export async function buildWorld(knex: Knex, baseUrl: string, uploadDir: string): Promise<World> {
+export async function buildWorld(
+  knex: Knex,
+  baseUrl: string,
+  uploadDir: string,
+  paymentsUrl?: string,
+): Promise<World> {
+  // The payment fake keeps its own state: start it afresh with the database, or its
+  // idempotency keys (made from ids) would clash with the new rows' ids.
+  if (paymentsUrl) await paymentsFakeControl(paymentsUrl, TEST_PAYMENT_KEYS.secretKey).reset();
   const owner = await makeHomeowner(knex);
   const otherHomeowner = await makeHomeowner(knex);
   const pendingReviewer = await makeReviewer(knex, { verified: false });
@@ -134,6 +144,8 @@ export async function buildWorld(knex: Knex, baseUrl: string, uploadDir: string)
   const project = await makeProject(knex, owner);
   const openRequest = await makeRequest(knex, project);
   const quote = await makeQuote(knex, openRequest, jobReviewer);
+  // Quoting opens the thread between the homeowner and the reviewer.
+  await knex("message_threads").insert({ request_id: openRequest.id, reviewer_id: jobReviewer.id });
   const credentialId = Number(
     (await knex("credentials").where({ reviewer_id: pendingReviewer.id }).first("id")).id,
   );
