@@ -60,7 +60,8 @@ export async function chooseNewPassword(input: unknown): Promise<ActionState> {
 
 /** The confirmation page's button: the link's token confirms the address. */
 export async function confirmEmail(formData: FormData): Promise<void> {
-  const ok = await verifyEmail(db(), String(formData.get("token") ?? ""));
+  const token = formData instanceof FormData ? formData.get("token") : null;
+  const ok = await verifyEmail(db(), typeof token === "string" ? token : "");
   redirect(ok ? "/verify-email?done=1" : "/verify-email?failed=1");
 }
 

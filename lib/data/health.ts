@@ -24,3 +24,29 @@ export async function getHealth(db: Db = getDb()): Promise<Health> {
     clearTimeout(timer);
   }
 }
+
+// A process-local note of the last time this process saw the database fail, so the page gate in
+// proxy.ts answers 503 at once instead of trusting its cached "up". Per process on purpose: it
+// describes this process's connection, not shared state.
+const state = globalThis as unknown as {
+  loopwrightDbDownAt?: number;
+  loopwrightDbUpUntil?: number;
+};
+
+/** Record that a query just failed because the database could not be reached. */
+export function noteDatabaseDown(): void {
+  state.loopwrightDbDownAt = Date.now();
+  state.loopwrightDbUpUntil = 0;
+}
+
+/**
+ * Is the database reachable? A healthy answer is trusted for `cacheMs` (so pages do not each
+ * pay for a ping); a failure is never cached, so recovery is seen on the next request.
+ */
+export async function databaseReachable(cacheMs = 1000, db?: Db): Promise<boolean> {
+  if (Date.now() < (state.loopwrightDbUpUntil ?? 0)) return true;
+  const h = await getHealth(db);
+  if (h.database === "up") state.loopwrightDbUpUntil = Date.now() + cacheMs;
+  else noteDatabaseDown();
+  return h.database === "up";
+}

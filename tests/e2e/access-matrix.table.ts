@@ -196,10 +196,6 @@ export const PAGES: Record<string, PageRow> = {
 PAGES["/board"]!.expect.pendingReviewer = { status: 200, shows: "not open to you yet" };
 PAGES["/board"]!.expect.suspendedReviewer = { status: 200, shows: "not open to you yet" };
 
-/** A homeowner names the reviewer's thread; a reviewer only ever reaches their own. */
-const homeownerNamesReviewer = (w: World, actor: Actor) =>
-  actor === "owner" || actor === "otherHomeowner" ? `?reviewer=${w.people.jobReviewer.id}` : "";
-
 export const ROUTES: Record<string, RouteRow> = {
   "/api/health": { GET: route(rule(200)) },
   "/api/auth/[...nextauth]": {

@@ -64,13 +64,35 @@ export interface ActionAnswer {
   text: string;
 }
 
-/** The action's return value out of the flight response: the row the root's `a` points at. */
-function parseFlight(text: string): ActionAnswer["value"] {
+/**
+ * The rows of a React flight response: `<hex id>:<json>\n`, or `<hex id>:T<hex byte length>,<text>`
+ * (a long string, sent by length, newline-free framing).
+ */
+function flightRows(bytes: Buffer): Map<string, string> {
   const rows = new Map<string, string>();
-  for (const line of text.split("\n")) {
-    const m = /^([0-9a-f]+):(.*)$/.exec(line);
-    if (m) rows.set(m[1]!, m[2]!);
+  let i = 0;
+  while (i < bytes.length) {
+    const colon = bytes.indexOf(0x3a, i);
+    if (colon < 0) break;
+    const id = bytes.subarray(i, colon).toString();
+    if (bytes[colon + 1] === 0x54 /* T */) {
+      const comma = bytes.indexOf(0x2c, colon);
+      const len = parseInt(bytes.subarray(colon + 2, comma).toString(), 16);
+      rows.set(id, JSON.stringify(bytes.subarray(comma + 1, comma + 1 + len).toString()));
+      i = comma + 1 + len;
+    } else {
+      let nl = bytes.indexOf(0x0a, colon);
+      if (nl < 0) nl = bytes.length;
+      rows.set(id, bytes.subarray(colon + 1, nl).toString());
+      i = nl + 1;
+    }
   }
+  return rows;
+}
+
+/** The action's return value out of the flight response: the row the root's `a` points at. */
+function parseFlight(bytes: Buffer): ActionAnswer["value"] {
+  const rows = flightRows(bytes);
   const root = rows.get("0");
   if (!root) return undefined;
   try {
@@ -105,8 +127,9 @@ export async function callAction(
     },
     body,
   });
-  const text = await res.text();
+  const bytes = Buffer.from(await res.arrayBuffer());
+  const text = bytes.toString();
   const redirect =
     res.headers.get("x-action-redirect")?.split(";")[0] ?? res.headers.get("location") ?? undefined;
-  return { status: res.status, redirect, value: parseFlight(text), text };
+  return { status: res.status, redirect, value: parseFlight(bytes), text };
 }
