@@ -15,8 +15,10 @@ import { mailFake } from "../support/mail";
 
 const N = 150;
 
+const started = new Set<ChildProcess>();
+
 function startWorker(args: string[] = []): ChildProcess {
-  return spawn(process.execPath, ["--import", "tsx", "lib/worker/main.ts", ...args], {
+  const child = spawn(process.execPath, ["--import", "tsx", "lib/worker/main.ts", ...args], {
     env: {
       ...process.env,
       DB_TARGET: "test",
@@ -25,6 +27,8 @@ function startWorker(args: string[] = []): ChildProcess {
     },
     stdio: ["ignore", "ignore", "inherit"],
   });
+  started.add(child);
+  return child;
 }
 
 describe("worker killed mid-batch", () => {
@@ -38,6 +42,8 @@ describe("worker killed mid-batch", () => {
     await truncateAll(knex);
   });
   afterAll(async () => {
+    // A failed or timed-out test must not leave a worker sending from this database.
+    for (const c of started) if (c.exitCode === null) c.kill("SIGKILL");
     await truncateAll(knex);
     await knex.destroy();
   });
