@@ -39,14 +39,45 @@ export function noteDatabaseDown(): void {
   state.loopwrightDbUpUntil = 0;
 }
 
+/** Errors that mean the server cannot be reached at all (not merely slow). */
+const UNREACHABLE = new Set([
+  "ECONNREFUSED",
+  "ECONNRESET",
+  "PROTOCOL_CONNECTION_LOST",
+  "ETIMEDOUT",
+  "EHOSTUNREACH",
+  "ENOTFOUND",
+]);
+
 /**
  * Is the database reachable? A healthy answer is trusted for `cacheMs` (so pages do not each
- * pay for a ping); a failure is never cached, so recovery is seen on the next request.
+ * pay for a ping); a failure is never cached, so recovery is seen on the next request. Only a
+ * connection that fails counts as down: a ping still waiting after `waitMs` (a busy pool under
+ * load) lets the request through, to be slow rather than refused.
  */
-export async function databaseReachable(cacheMs = 1000, db?: Db): Promise<boolean> {
+export async function databaseReachable(
+  cacheMs = 1000,
+  db: Db = getDb(),
+  waitMs = 1500,
+): Promise<boolean> {
   if (Date.now() < (state.loopwrightDbUpUntil ?? 0)) return true;
-  const h = await getHealth(db);
-  if (h.database === "up") state.loopwrightDbUpUntil = Date.now() + cacheMs;
-  else noteDatabaseDown();
-  return h.database === "up";
+  let timer: NodeJS.Timeout | undefined;
+  try {
+    const answered = await Promise.race([
+      db.raw("SELECT 1").then(() => true),
+      new Promise<false>((r) => (timer = setTimeout(() => r(false), waitMs))),
+    ]);
+    if (answered) state.loopwrightDbUpUntil = Date.now() + cacheMs;
+    return true;
+  } catch (err) {
+    const code = (err as { code?: string } | null)?.code ?? "";
+    const name = (err as { name?: string } | null)?.name ?? "";
+    if (UNREACHABLE.has(code) || name === "KnexTimeoutError") {
+      noteDatabaseDown();
+      return false;
+    }
+    return true;
+  } finally {
+    clearTimeout(timer);
+  }
 }

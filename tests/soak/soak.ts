@@ -198,6 +198,14 @@ async function homeownerJourney(h: Home, knex: Knex, until: number) {
   }
 }
 
+/** A session cookie, or an error saying why not (a journey without one would measure nothing). */
+async function session(email: string): Promise<string> {
+  const s = await signInHttp(BASE, email, FIXTURE_PASSWORD);
+  if (!s.cookie.includes("session-token"))
+    throw new Error(`${email} could not sign in (status ${s.status})`);
+  return s.cookie;
+}
+
 // ---------------------------------------------------------------------------------------------
 // Set-up, run, verify
 // ---------------------------------------------------------------------------------------------
@@ -262,7 +270,7 @@ async function main() {
       homes.push({
         who,
         request,
-        cookie: (await signInHttp(BASE, who.email, FIXTURE_PASSWORD)).cookie,
+        cookie: await session(who.email),
       });
     }
     for (let i = 0; i < USERS - nHomes; i++) {
@@ -270,7 +278,7 @@ async function main() {
       revs.push({
         who,
         quoted: new Set(),
-        cookie: (await signInHttp(BASE, who.email, FIXTURE_PASSWORD)).cookie,
+        cookie: await session(who.email),
       });
     }
     console.log(
