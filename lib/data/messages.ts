@@ -2,7 +2,7 @@ import { messageSchema } from "@/lib/validation/message";
 import { env } from "@/lib/env";
 import { sqlDateTime } from "@/lib/time";
 import type { Actor } from "./actor";
-import type { Db } from "./db";
+import { transactionWithRetry, type Db } from "./db";
 import { forbidden, notFound, parseInput, unprocessable } from "./errors";
 import { notifyNewMessage } from "./notify";
 import type { Message } from "@/lib/types/messages";
@@ -74,7 +74,8 @@ export async function postMessage(
 ): Promise<number> {
   const v = parseInput(messageSchema, input, "The message needs attention.");
   const { threadId } = await threadFor(db, actor, requestId, reviewerId);
-  return db.transaction(async (trx) => {
+  // Both sides writing at once deadlock on the thread row: the victim retries.
+  return transactionWithRetry(db, async (trx) => {
     const [id] = await trx("messages").insert({
       thread_id: threadId,
       sender_id: actor.id,
