@@ -74,8 +74,10 @@ export async function postMessage(
 ): Promise<number> {
   const v = parseInput(messageSchema, input, "The message needs attention.");
   const { threadId } = await threadFor(db, actor, requestId, reviewerId);
-  // Both sides writing at once deadlock on the thread row: the victim retries.
+  // Lock the thread first: the message's foreign key takes a shared lock on it, which two
+  // writers would each try to upgrade for the update below (a deadlock). A victim still retries.
   return transactionWithRetry(db, async (trx) => {
+    await trx("message_threads").where({ id: threadId }).forUpdate().first("id");
     const [id] = await trx("messages").insert({
       thread_id: threadId,
       sender_id: actor.id,
