@@ -2,6 +2,8 @@ import { NextResponse, type NextFetchEvent, type NextRequest } from "next/server
 import { withAuth, type NextRequestWithAuth } from "next-auth/middleware";
 import { env } from "@/lib/env";
 import { contentSecurityPolicy, makeNonce } from "@/lib/security-headers";
+import { databaseReachable } from "@/lib/data/health";
+import { UNAVAILABLE_HTML, UNAVAILABLE_CSP } from "@/lib/unavailable";
 
 // next-auth reads the cookie name (Secure prefix or not) from NEXTAUTH_URL; ours is APP_URL.
 process.env.NEXTAUTH_URL ??= env().APP_URL;
@@ -66,13 +68,26 @@ function refuseAction(req: NextRequest): NextResponse | null {
 }
 
 /**
- * Every page: the cheap redirect to sign-in for app pages, then a Content-Security-Policy with
+ * Every page: a 503 while the database cannot be reached (lib/data/health.ts), the cheap redirect to sign-in for app pages, then a Content-Security-Policy with
  * a fresh nonce. The nonce goes on the request too, where Next.js finds it and puts it on the
  * scripts it renders; the response carries the policy the browser enforces.
  */
 export default async function proxy(req: NextRequest, event: NextFetchEvent) {
   const refused = refuseAction(req);
   if (refused) return refused;
+  // No database, no page: a plain 503 that says so, rather than an error page per render.
+  // Server actions answer for themselves, in the form ("briefly unavailable").
+  if (!req.headers.has("next-action") && !(await databaseReachable())) {
+    return new NextResponse(UNAVAILABLE_HTML, {
+      status: 503,
+      headers: {
+        "content-type": "text/html; charset=utf-8",
+        "retry-after": "15",
+        "cache-control": "no-store",
+        "content-security-policy": UNAVAILABLE_CSP,
+      },
+    });
+  }
   if (needsSignIn(req.nextUrl.pathname)) {
     const redirect = await signInRedirect(req as NextRequestWithAuth, event);
     if (redirect) return redirect;

@@ -48,6 +48,12 @@ collation-server=utf8mb4_unicode_ci
 innodb_buffer_pool_size=128M
 innodb_log_file_size=48M
 max_connections=200
+# Durability: write and flush the InnoDB log at every commit, so a committed transaction
+# survives a crash or power cut. The binary log is off (no replication); if log_bin is ever
+# turned on, sync_binlog=1 keeps it in step.
+innodb_flush_log_at_trx_commit=1
+innodb_doublewrite=1
+sync_binlog=1
 CNF
 }
 

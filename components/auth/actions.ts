@@ -48,10 +48,11 @@ export async function chooseNewPassword(input: unknown): Promise<ActionState> {
 
 /** The confirmation page's button: the link's token confirms the address. */
 export async function confirmEmail(formData: FormData): Promise<void> {
+  const raw = formData instanceof FormData ? formData.get("token") : null;
   const token = z
     .string()
     .regex(/^[A-Za-z0-9_-]{20,100}$/)
-    .safeParse(formData.get("token"));
+    .safeParse(raw);
   const ok = token.success && (await verifyEmail(db(), token.data));
   redirect(ok ? "/verify-email?done=1" : "/verify-email?failed=1");
 }

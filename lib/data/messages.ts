@@ -2,7 +2,7 @@ import { messageSchema } from "@/lib/validation/message";
 import { env } from "@/lib/env";
 import { sqlDateTime } from "@/lib/time";
 import type { Actor } from "./actor";
-import type { Db } from "./db";
+import { transactionWithRetry, type Db } from "./db";
 import { forbidden, notFound, parseInput, unprocessable } from "./errors";
 import { notifyNewMessage } from "./notify";
 import type { Message } from "@/lib/types/messages";
@@ -107,7 +107,10 @@ export async function postMessage(
 ): Promise<number> {
   const { threadId } = await threadFor(db, actor, requestId, reviewerId, true);
   const v = parseInput(messageSchema, input, "The message needs attention.");
-  return db.transaction(async (trx) => {
+  // Lock the thread first: the message's foreign key takes a shared lock on it, which two
+  // writers would each try to upgrade for the update below (a deadlock). A victim still retries.
+  return transactionWithRetry(db, async (trx) => {
+    await trx("message_threads").where({ id: threadId }).forUpdate().first("id");
     const [id] = await trx("messages").insert({
       thread_id: threadId,
       sender_id: actor.id,

@@ -5,7 +5,7 @@ import { haversineKm } from "@/lib/geo";
 import { fromSqlDateTime, sqlDate, sqlDateTime } from "@/lib/time";
 import type { Actor } from "./actor";
 import { audit } from "./audit";
-import type { Db } from "./db";
+import { transactionWithRetry, type Db } from "./db";
 import { conflict, forbidden, notFound, parseInput, unprocessable } from "./errors";
 import { parseJson } from "./json";
 import { notifyNewQuote, notifyQuoteAccepted, notifyQuoteDeclined } from "./notify";
@@ -33,7 +33,8 @@ export async function submitQuote(
 ): Promise<number> {
   await requireVerified(db, actor);
   const v = parseInput(quoteSchema, input);
-  return db.transaction(async (trx) => {
+  // Reviewers quoting one request at once take gap locks on quotes: a deadlock victim retries.
+  return transactionWithRetry(db, async (trx) => {
     const r = await trx("requests")
       .where({ id: requestId })
       .forUpdate()

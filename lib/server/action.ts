@@ -7,6 +7,7 @@ import type { Role } from "@/lib/data/actor";
 import { getCurrentUser, type CurrentUser } from "./auth/session";
 import { isDatabaseDown } from "./http";
 import { clientAddress } from "./client-address";
+import { noteDatabaseDown } from "@/lib/data/health";
 
 import type { ActionState } from "@/lib/types/action";
 
@@ -37,9 +38,14 @@ interface ActionOptions<S extends z.ZodType, R> {
 export async function runAction<S extends z.ZodType, R>(
   opts: ActionOptions<S, R>,
 ): Promise<ActionState> {
-  const user = await getCurrentUser();
-  if (!user) redirect("/sign-in");
   const values = opts.values;
+  let user: CurrentUser | null;
+  try {
+    user = await getCurrentUser();
+  } catch (err) {
+    return failure(err, values);
+  }
+  if (!user) redirect("/sign-in");
   if (opts.roles && !opts.roles.includes(user.role))
     return { ok: false, message: "Your account cannot do this.", values };
   const parsed = opts.schema.safeParse(opts.input);
@@ -100,12 +106,14 @@ export async function publicAction<S extends z.ZodType, R>(
 export function failure(err: unknown, values?: ActionState["values"]): ActionState {
   if (err instanceof HttpError)
     return { ok: false, message: err.message, fieldErrors: err.fieldErrors, values };
-  if (isDatabaseDown(err))
+  if (isDatabaseDown(err)) {
+    noteDatabaseDown();
     return {
       ok: false,
       message: "The service is briefly unavailable; what you typed is still here. Try again soon.",
       values,
     };
+  }
   console.error(err);
   return {
     ok: false,
@@ -120,6 +128,9 @@ export function formValues(
   lists: readonly string[] = [],
 ): Record<string, string | string[]> {
   const out: Record<string, string | string[]> = {};
+  // Anyone can post any argument list to an action: something that is not a form has no fields,
+  // and the schema then refuses it in words instead of the action throwing.
+  if (!(formData instanceof FormData)) return out;
   for (const key of new Set(formData.keys())) {
     if (key.startsWith("$")) continue;
     const all = formData.getAll(key).map((v) => (typeof v === "string" ? v : v.name));

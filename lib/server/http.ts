@@ -1,5 +1,6 @@
 import "server-only";
 import { HttpError } from "@/lib/data/errors";
+import { noteDatabaseDown } from "@/lib/data/health";
 
 /** Turn an error into a JSON response; unexpected errors are logged, never shown. */
 export function errorResponse(err: unknown): Response {
@@ -10,6 +11,7 @@ export function errorResponse(err: unknown): Response {
     );
   }
   if (isDatabaseDown(err)) {
+    noteDatabaseDown();
     return Response.json(
       { error: "The service is briefly unavailable. Please try again in a moment." },
       { status: 503 },
