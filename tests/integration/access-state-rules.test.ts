@@ -101,6 +101,11 @@ describe("access and state rules of the data layer", () => {
       const admin = await makeAdmin(knex);
       const verified = await makeReviewer(knex);
       const unverified = await makeReviewer(knex, { verified: false });
+      // Another homeowner's project, with a file and a live job of another reviewer: neither
+      // that file nor that job opens anything on this project.
+      const elsewhere = await makeProject(knex, stranger);
+      await photoOn(elsewhere);
+      await makeJob(knex, "in_review", { project: elsewhere });
       const project = await makeProject(knex, owner);
       const file = await photoOn(project);
       const read = async (actor: Parameters<typeof getReadableAttachment>[1]) => {
@@ -115,6 +120,18 @@ describe("access and state rules of the data layer", () => {
       // No request yet: only the owner and admins.
       expect(await read(owner)).toBe(file);
       expect(await read(admin)).toBe(file);
+      expect(await getReadableAttachment(knex, owner, file)).toMatchObject({
+        id: file,
+        ownerId: owner.id,
+        projectId: project.id,
+        purpose: "photo",
+        fileName: "loft.jpg",
+        mimeType: "image/jpeg",
+        sizeBytes: 1234,
+        thumbnailKey: null,
+      });
+      await knex("attachments").where({ id: file }).update({ thumbnail_key: "thumb-key" });
+      expect((await getReadableAttachment(knex, owner, file)).thumbnailKey).toBe("thumb-key");
       expect(await read(stranger)).toBe(denied);
       expect(await read(verified)).toBe(denied);
       // An open request: verified reviewers read it, unverified ones do not.
@@ -152,7 +169,11 @@ describe("access and state rules of the data layer", () => {
         mime_type: "application/pdf",
         size_bytes: 99,
       });
-      expect((await getReadableAttachment(knex, owner, Number(id))).fileKey).toBe("cred-key");
+      expect(await getReadableAttachment(knex, owner, Number(id))).toMatchObject({
+        fileKey: "cred-key",
+        projectId: null,
+        purpose: "credential_evidence",
+      });
       expect((await getReadableAttachment(knex, admin, Number(id))).fileKey).toBe("cred-key");
       const r = await refusalOf(getReadableAttachment(knex, other, Number(id)));
       expect([r.status, r.message]).toEqual([403, "You do not have access to this file."]);
