@@ -89,5 +89,8 @@ describe("tokens and rate limits", () => {
       .where({ bucket: "x".repeat(191) })
       .first("hits");
     expect(cut.hits).toBe(2);
+    // … and still limited: a bucket with a long address is counted like any other.
+    expect((await hit(knex, long, 3, w, at(15_000))).allowed).toBe(true);
+    expect((await hit(knex, long, 3, w, at(15_000))).allowed).toBe(false);
   });
 });
