@@ -166,9 +166,10 @@ export async function acceptQuote(
     const r = await trx("requests")
       .where({ id: q.request_id })
       .forUpdate()
-      .first("id", "homeowner_id", "status");
+      .first("id", "homeowner_id", "status", "expires_at");
     if (!r || Number(r.homeowner_id) !== actor.id) throw notFound("No such quote.");
-    if (r.status !== "open")
+    // Past its expiry the request is closed, even before the worker's pass marks it expired.
+    if (r.status !== "open" || fromSqlDateTime(r.expires_at).getTime() <= Date.now())
       throw conflict(
         "A quote on this request has already been accepted, or the request has closed.",
       );

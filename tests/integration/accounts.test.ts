@@ -59,6 +59,36 @@ describe("accounts against the real MariaDB", () => {
     expect(stored.token_hash).toMatch(/^[0-9a-f]{64}$/);
   });
 
+  it("a sign-up that fails after its e-mail is queued leaves neither the account nor the e-mail", async () => {
+    // A trigger makes the audit row, written after the e-mail is queued, fail for this address:
+    // the real database refuses the last step, and the transaction must take the rest back.
+    await knex.raw("DROP TRIGGER IF EXISTS fail_signup_audit");
+    await knex.raw(`CREATE TRIGGER fail_signup_audit BEFORE INSERT ON audit_log FOR EACH ROW
+      BEGIN
+        IF NEW.action = 'user.signed_up' AND EXISTS (
+          SELECT 1 FROM users WHERE id = NEW.entity_id AND email = 'doomed@example.test'
+        ) THEN
+          SIGNAL SQLSTATE '45000' SET MESSAGE_TEXT = 'audit refused for the test';
+        END IF;
+      END`);
+    try {
+      await expect(
+        createAccount(knex, { ...good, email: "doomed@example.test" }, APP),
+      ).rejects.toThrow("audit refused for the test");
+      expect(await knex("users").where({ email: "doomed@example.test" })).toHaveLength(0);
+      expect(await knex("email_outbox").where({ to_address: "doomed@example.test" })).toHaveLength(
+        0,
+      );
+      expect(await knex("auth_tokens")).toHaveLength(0);
+      // The trigger passes every other sign-up: the account and its e-mail are both there.
+      await createAccount(knex, good, APP);
+      expect(await knex("users").where({ email: "ada@example.test" })).toHaveLength(1);
+      expect(await knex("email_outbox").where({ to_address: "ada@example.test" })).toHaveLength(1);
+    } finally {
+      await knex.raw("DROP TRIGGER IF EXISTS fail_signup_audit");
+    }
+  });
+
   it("gives field errors for a duplicate address, a short password and a common password", async () => {
     await createAccount(knex, good, APP, ADDR);
     const dup = await refusalOf(

@@ -192,6 +192,34 @@ describe("the request board against the real MariaDB", () => {
     expect(mine).toEqual([ids[2], ids[0], ids[1]]);
   });
 
+  it("pages the distance and soonest sorts with the offset cursor: every row once, none skipped", async () => {
+    // Runs after the test above, which gave the reviewer a centre and added three site visits.
+    for (const sort of ["distance", "soonest"]) {
+      const whole = await listBoard(knex, verified, q({ sort, limit: "50" }));
+      expect(whole.nextCursor).toBeNull();
+      expect(whole.items.length, sort).toBeGreaterThanOrEqual(3);
+      for (const limit of ["1", "2"]) {
+        const seen: number[] = [];
+        const cursors: string[] = [];
+        let cursor: string | null = null;
+        do {
+          const page = await listBoard(
+            knex,
+            verified,
+            q({ sort, limit, ...(cursor ? { cursor } : {}) }),
+          );
+          expect(page.items.length).toBeLessThanOrEqual(Number(limit));
+          seen.push(...page.items.map((i) => i.id));
+          cursor = page.nextCursor;
+          if (cursor) cursors.push(cursor);
+        } while (cursor);
+        expect(seen, `${sort} by ${limit}`).toEqual(whole.items.map((i) => i.id));
+        // The offset grows by the page size each time: o:1, o:2 … or o:2, o:4 …
+        expect(cursors).toEqual(cursors.map((_, i) => `o:${(i + 1) * Number(limit)}`));
+      }
+    }
+  });
+
   it("is served by an index, not a table scan", async () => {
     const cases: Record<string, string>[] = [
       {},

@@ -240,35 +240,54 @@ describe("e-mail outbox, worker and SMTP fake", () => {
     expect(row!.last_error).toMatch(/550.*mailbox does not exist/);
   });
 
-  it("two workers at once send every row exactly once", async () => {
-    for (let i = 0; i < 40; i++) {
-      await enqueueEmail(knex, {
-        to: { address: `bulk${i}@example.test` },
-        template: "verify_email",
-        payload: { name: `B${i}`, url: "http://x.test/v" },
-      });
-    }
+  it("two workers claiming at the same moment send every row exactly once (20 rounds)", async () => {
+    // The barrier: a third connection holds the outbox under LOCK TABLES … WRITE while both
+    // workers start their claim; both wait inside MariaDB (metadata lock) until it unlocks, so
+    // their SELECTs run at the same moment. Without FOR UPDATE SKIP LOCKED both then take the
+    // same rows and every round sends 20 instead of 10.
     const other = testKnex();
+    const locker = testKnex();
+    const conn = await locker.client.acquireConnection();
+    const waiting = async () =>
+      Number(
+        (
+          await knex("information_schema.processlist")
+            .where("info", "like", "%email_outbox%")
+            .andWhere("state", "like", "%metadata lock%")
+            .count({ n: "*" })
+        )[0]!.n,
+      );
     try {
-      // Both drain the outbox at the same time, in batches of 10, until neither finds work.
-      const drain = async (k: Knex, id: string) => {
-        let sent = 0;
-        for (;;) {
-          const r = await sendBatch(k, fake.transport(), MAIL_FROM, id, 10);
-          if (r.sent + r.retried + r.failed === 0) return sent;
-          sent += r.sent;
+      for (let round = 0; round < 20; round++) {
+        for (let i = 0; i < 10; i++) {
+          await enqueueEmail(knex, {
+            to: { address: `bulk${round}-${i}@example.test` },
+            template: "verify_email",
+            payload: { name: `B${i}`, url: "http://x.test/v" },
+          });
         }
-      };
-      const [a, b] = await Promise.all([drain(knex, "worker-a"), drain(other, "worker-b")]);
-      const total = a + b;
-      expect(total).toBe(40);
+        await locker.raw("LOCK TABLES email_outbox WRITE").connection(conn);
+        const a = sendBatch(knex, fake.transport(), MAIL_FROM, "worker-a", 10);
+        const b = sendBatch(other, fake.transport(), MAIL_FROM, "worker-b", 10);
+        for (let t = 0; t < 400 && (await waiting()) < 2; t++)
+          await new Promise((r) => setTimeout(r, 10));
+        expect(await waiting(), `round ${round}: both workers wait at the barrier`).toBe(2);
+        await locker.raw("UNLOCK TABLES").connection(conn);
+        const [ra, rb] = await Promise.all([a, b]);
+        expect(ra.sent + rb.sent, `round ${round}`).toBe(10);
+        expect(ra.retried + rb.retried + ra.failed + rb.failed).toBe(0);
+      }
     } finally {
+      await locker.raw("UNLOCK TABLES").connection(conn);
+      await locker.client.releaseConnection(conn);
+      await locker.destroy();
       await other.destroy();
     }
     const box = await fake.messages();
-    expect(box).toHaveLength(40);
-    expect(new Set(box.map((m) => m.messageId)).size).toBe(40);
-  });
+    expect(box).toHaveLength(200);
+    expect(new Set(box.map((m) => m.messageId)).size).toBe(200);
+    expect(await knex("email_outbox").whereNot({ status: "sent" })).toHaveLength(0);
+  }, 180_000);
 
   it("a worker killed mid-batch loses nothing; on restart the rest goes, at most the one in flight twice", async () => {
     for (let i = 0; i < 60; i++) {

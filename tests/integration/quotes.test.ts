@@ -8,7 +8,6 @@ import {
   submitQuote,
   withdrawQuote,
 } from "@/lib/data/quotes";
-import { HttpError } from "@/lib/data/errors";
 import { testKnex, truncateAll } from "../support/db";
 import { statusOf } from "../support/status";
 
@@ -80,7 +79,11 @@ describe("quotes and accepting one, against the real MariaDB", () => {
     });
     await expect(
       submitQuote(knex, who.sol!, requestId, { ...quote, pricePounds: 99999 }, APP),
-    ).rejects.toBeInstanceOf(HttpError);
+    ).rejects.toMatchObject({
+      status: 422,
+      message: "Some details need attention.",
+      fieldErrors: { pricePounds: [expect.stringMatching(/At most/)] },
+    });
     await knex("requests").where({ id: requestId }).update({ expires_at: "2020-01-01 00:00:00" });
     expect(await statusOf(submitQuote(knex, who.sol!, requestId, quote, APP))).toBe(409);
   });

@@ -190,6 +190,6 @@ describe("upload fake: single-use URLs, guarded reset, never in production", () 
       else process.env.APP_ENV = before;
     }
     // Nothing is listening there.
-    await expect(fetch(`http://127.0.0.1:${PORT + 1}/health`)).rejects.toThrow();
+    await expect(fetch(`http://127.0.0.1:${PORT + 1}/health`)).rejects.toThrow("fetch failed");
   });
 });

@@ -38,6 +38,15 @@ describe("IAPWS-IF97 saturation line, Table 35", () => {
   it("T_sat(0.1 MPa) = 372.755919 K (Table 36; value recalled from memory)", () => {
     expect(saturationTemperature(0.1)).toBeCloseTo(372.755919, 5);
   });
+
+  it("T_sat is the inverse of p_sat, so the Table 35 values above also check it (not memory alone)", () => {
+    for (const [t, p] of [
+      [300, 0.353658941e-2],
+      [500, 0.263889776e1],
+      [600, 0.123443146e2],
+    ] as const)
+      expect(saturationTemperature(p)).toBeCloseTo(t, 5);
+  });
 });
 
 describe("derived water properties", () => {
