@@ -73,7 +73,7 @@ describe("accounts against the real MariaDB", () => {
       END`);
     try {
       await expect(
-        createAccount(knex, { ...good, email: "doomed@example.test" }, APP),
+        createAccount(knex, { ...good, email: "doomed@example.test" }, APP, ADDR),
       ).rejects.toThrow("audit refused for the test");
       expect(await knex("users").where({ email: "doomed@example.test" })).toHaveLength(0);
       expect(await knex("email_outbox").where({ to_address: "doomed@example.test" })).toHaveLength(
@@ -81,7 +81,7 @@ describe("accounts against the real MariaDB", () => {
       );
       expect(await knex("auth_tokens")).toHaveLength(0);
       // The trigger passes every other sign-up: the account and its e-mail are both there.
-      await createAccount(knex, good, APP);
+      await createAccount(knex, good, APP, ADDR);
       expect(await knex("users").where({ email: "ada@example.test" })).toHaveLength(1);
       expect(await knex("email_outbox").where({ to_address: "ada@example.test" })).toHaveLength(1);
     } finally {
