@@ -43,7 +43,8 @@ describe("a reviewer's journey in Chromium", () => {
     const admin = await makeAdmin(knex);
     const owner = await makeHomeowner(knex);
     const project = await makeProject(knex, owner, { title: "Orchard barn loop" });
-    const near = await makeRequest(knex, project, {
+    // One open request per project: the site visits are on projects of their own.
+    const near = await makeRequest(knex, await makeProject(knex, owner), {
       kind: "site_visit",
       siteLat: 51 + 15 / 111.2,
       siteLng: -2,

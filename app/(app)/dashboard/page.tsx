@@ -44,7 +44,10 @@ async function HomeownerPanel({ user }: { user: CurrentUser }) {
           {projects.map((p) => (
             <li key={p.id} className="flex flex-wrap items-center gap-3 py-3">
               {p.worstLevel ? <LevelBadge level={p.worstLevel} /> : null}
-              <Link href={`/projects/${p.id}`} className="flex-1 font-semibold underline">
+              <Link
+                href={`/projects/${p.id}`}
+                className="flex min-h-11 flex-1 items-center font-semibold underline"
+              >
                 {p.title}
               </Link>
               <span className="text-sm text-slate-600">
