@@ -30,6 +30,7 @@ import {
   makeReviewer,
 } from "../support/fixtures";
 import {
+  answerThroughData,
   deliverThroughData,
   fundByCheckout,
   jobState,
@@ -149,15 +150,18 @@ describe("quotes, payment, review, release and dispute in Chromium", () => {
       await mail.expectMail(owner.email, "Review started: Hillside loop");
     });
 
-    const items = rp.locator("article[data-item]");
-    await step("answer every item", async () => {
-      const total = await items.count();
-      expect(total).toBeGreaterThan(30);
-      for (let i = 0; i < total; i++) {
-        const item = items.nth(i);
-        const key = await item.getAttribute("data-item");
-        await item.getByText(key === "scald" ? "Concern" : "Sound", { exact: true }).click();
-      }
+    await step("answer the checklist", async () => {
+      // Most items are answered beforehand through the autosave's own function (the whole
+      // checklist clicked through is tests/e2e/review.test.ts); the reviewer answers the rest.
+      const inBrowser = ["scald", "vessel-rating", "relief-valve"];
+      await answerThroughData(knex, reviewer, job.id, inBrowser);
+      await rp.reload();
+      for (const key of inBrowser)
+        await rp
+          .locator(`article[data-item="${key}"]`)
+          .getByText(key === "scald" ? "Concern" : "Sound", { exact: true })
+          .click();
+      const total = await rp.locator("article[data-item]").count();
       await expect
         .poll(() => rp.getByTestId("progress").textContent())
         .toBe(`${total} of ${total} items answered`);

@@ -60,7 +60,7 @@ describe("a site visit from payment to the delivered report in Chromium", () => 
 
     const rp = await signedInPage(browser, baseUrl, job.reviewer.email, `/jobs/${job.id}`);
     await step("the reviewer proposes a time inside the window", async () => {
-      await rp.getByRole("heading", { name: "Site visit" }).waitFor();
+      await rp.locator("h2", { hasText: /^Site visit$/ }).waitFor();
       const at = rp.getByLabel("Date and time of the visit");
       expect(await at.getAttribute("min")).toContain(firstDay);
       await at.fill(`${day}T10:30`);

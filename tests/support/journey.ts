@@ -211,6 +211,30 @@ export async function fundByCheckout(
 }
 
 /**
+ * Answers every checklist item of a job in review but those in `skip`, through the function the
+ * workspace's autosave calls: sound, or a concern for `concernKey`. Returns the workspace as
+ * it was before.
+ */
+export async function answerThroughData(
+  knex: Knex,
+  reviewer: Actor,
+  jobId: number,
+  skip: readonly string[] = [],
+  concernKey = "scald",
+) {
+  const ws = await getReviewWorkspace(knex, reviewer, jobId);
+  for (const item of ws.items) {
+    if (skip.includes(item.key)) continue;
+    await saveAnswer(knex, reviewer, jobId, item.key, {
+      verdict: item.key === concernKey ? "concern" : "sound",
+      noteMd: item.key === concernKey ? "No mixing valve shown at the outlet." : "",
+      expectedVersion: ws.answers[item.key]?.version ?? 0,
+    });
+  }
+  return ws;
+}
+
+/**
  * A funded job reviewed and delivered through the review functions (as the demo seed does):
  * every item sound but `concernKey`, a summary, one required change.
  */
@@ -222,13 +246,7 @@ export async function deliverThroughData(
   concernKey = "scald",
 ) {
   await startJobReview(knex, reviewer, jobId);
-  const ws = await getReviewWorkspace(knex, reviewer, jobId);
-  for (const item of ws.items)
-    await saveAnswer(knex, reviewer, jobId, item.key, {
-      verdict: item.key === concernKey ? "concern" : "sound",
-      noteMd: item.key === concernKey ? "No mixing valve shown at the outlet." : "",
-      expectedVersion: ws.answers[item.key]?.version ?? 0,
-    });
+  const ws = await answerThroughData(knex, reviewer, jobId, [], concernKey);
   await saveReportDraft(knex, reviewer, jobId, {
     outcome: "fix_before_filling",
     summaryMd: "Sound apart from one item: fit a mixing valve before filling.",
