@@ -52,7 +52,8 @@ export function PinnedImage({ fileId, alt, pins, highlight, onPick, className }:
     <figure className={cn("relative inline-block max-w-full", className)}>
       <div
         className={cn(
-          "relative rounded-lg",
+          // As wide as the image, so the pins' fractions are of the image, not the caption.
+          "relative w-fit max-w-full rounded-lg",
           onPick && "focus:outline-none focus-visible:ring-4 focus-visible:ring-copper-700",
         )}
         tabIndex={onPick ? 0 : undefined}

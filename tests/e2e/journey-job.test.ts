@@ -11,7 +11,6 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import type { Browser } from "playwright-core";
 import type { Knex } from "knex";
-import sharp from "sharp";
 import { jobServices, type JobServices } from "@/lib/data/jobs";
 import { env } from "@/lib/env";
 import { refundSplit, splitFee } from "@/lib/jobs";
@@ -40,6 +39,7 @@ import {
   readyPayouts,
   shot,
   signedInPage,
+  sketchPng,
 } from "../support/journey";
 import { paymentsFakeControl } from "../support/payments";
 import { signInHttp } from "../support/session";
@@ -119,11 +119,7 @@ describe("quotes, payment, review, release and dispute in Chromium", () => {
     const owner = await makeHomeowner(knex);
     const project = await makeProject(knex, owner, { title: "Hillside loop" });
     const { cookie } = await signInHttp(baseUrl, owner.email, FIXTURE_PASSWORD);
-    const sketch = await sharp({
-      create: { width: 900, height: 600, channels: 3, background: "#e2e8f0" },
-    })
-      .png()
-      .toBuffer();
+    const sketch = await sketchPng();
     const up = await uploadViaApp(
       baseUrl,
       cookie,

@@ -9,7 +9,6 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import type { Browser, Page } from "playwright-core";
 import type { Knex } from "knex";
-import sharp from "sharp";
 import { jobServices, type JobServices } from "@/lib/data/jobs";
 import { systemSections } from "@/lib/validation/system";
 import { launchBrowser, step } from "../support/browser";
@@ -22,7 +21,14 @@ import {
   makeRequest,
   makeReviewer,
 } from "../support/fixtures";
-import { deliverThroughData, fundByCheckout, PHONE, shot, signedInPage } from "../support/journey";
+import {
+  deliverThroughData,
+  fundByCheckout,
+  PHONE,
+  shot,
+  signedInPage,
+  sketchPng,
+} from "../support/journey";
 import { paymentsFakeControl } from "../support/payments";
 import { signInHttp } from "../support/session";
 import { tinyPng, uploadViaApp } from "../support/uploads";
@@ -124,11 +130,7 @@ describe("the homeowner's pages on a phone", () => {
     const job = await makeJob(knex, "awaiting_payment", { reviewer, priceMinor: 12_000 });
     const owner = job.homeowner;
     const { cookie } = await signInHttp(baseUrl, owner.email, FIXTURE_PASSWORD);
-    const sketch = await sharp({
-      create: { width: 900, height: 600, channels: 3, background: "#e2e8f0" },
-    })
-      .png()
-      .toBuffer();
+    const sketch = await sketchPng();
     for (const [slug, name, bytes] of [
       ["sketch", "sketch.png", sketch],
       ["photo", "roof.png", tinyPng()],

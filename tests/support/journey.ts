@@ -135,6 +135,23 @@ export function mailbox(knex: Knex) {
   };
 }
 
+/** A small drawn loop sketch (collector, pipe, cylinder) as a PNG, for pins and screenshots. */
+export function sketchPng(width = 900, height = 600): Promise<Buffer> {
+  const svg = `<svg xmlns="http://www.w3.org/2000/svg" width="${width}" height="${height}" viewBox="0 0 900 600">
+<rect width="900" height="600" fill="#f8fafc"/>
+<polygon points="60,200 380,60 380,90 60,230" fill="#94a3b8"/>
+<rect x="120" y="95" width="200" height="90" fill="#1e3a5f" transform="rotate(-23 220 140)"/>
+<path d="M330 110 L520 110 L520 420 L600 420" stroke="#b45309" stroke-width="8" fill="none"/>
+<path d="M300 160 L480 160 L480 470 L600 470" stroke="#2563eb" stroke-width="8" fill="none"/>
+<rect x="600" y="330" width="150" height="220" rx="30" fill="#e2e8f0" stroke="#334155" stroke-width="6"/>
+<circle cx="490" cy="320" r="26" fill="#dc2626"/>
+<text x="640" y="590" font-size="22" font-family="sans-serif" fill="#334155">cylinder</text>
+<text x="70" y="270" font-size="22" font-family="sans-serif" fill="#334155">collectors</text>
+<text x="400" y="330" font-size="22" font-family="sans-serif" fill="#334155">vessel</text>
+</svg>`;
+  return sharp(Buffer.from(svg)).png().toBuffer();
+}
+
 /** The ledger rows of a job, oldest first, as `kind amount`. */
 export async function ledgerOf(knex: Knex, jobId: number): Promise<string[]> {
   const rows = await knex("ledger_entries")
