@@ -69,11 +69,11 @@ describe("quotes, payment, review, release and dispute in Chromium", () => {
   });
 
   it("3: compares two quotes, accepts one, pays after a declined card", async () => {
-    const owner = await makeHomeowner(knex);
+    const owner = await makeHomeowner(knex, { displayName: "Mira Hale" });
     const project = await makeProject(knex, owner, { title: "Mill cottage loop" });
     const request = await makeRequest(knex, project);
-    const cheap = await makeReviewer(knex, { displayName: "Ada Cheap" });
-    const dear = await makeReviewer(knex, { displayName: "Bea Dear" });
+    const cheap = await makeReviewer(knex, { displayName: "Ada Quill" });
+    const dear = await makeReviewer(knex, { displayName: "Bea Marsh" });
     await makeQuote(knex, request, cheap, { priceMinor: 9_500, turnaroundDays: 5 });
     await makeQuote(knex, request, dear, { priceMinor: 14_000, turnaroundDays: 2 });
     const page = await signedInPage(browser, baseUrl, owner.email, `/requests/${request.id}`);
@@ -114,9 +114,9 @@ describe("quotes, payment, review, release and dispute in Chromium", () => {
   }, 90_000);
 
   it("4: the review with a keyboard pin, a question answered with a photo, delivery and release", async () => {
-    const reviewer = await makeReviewer(knex, { displayName: "Sol Review" });
+    const reviewer = await makeReviewer(knex, { displayName: "Sol Brook" });
     await readyPayouts(knex, reviewer, svc, fake);
-    const owner = await makeHomeowner(knex);
+    const owner = await makeHomeowner(knex, { displayName: "Tobin Ash" });
     const project = await makeProject(knex, owner, { title: "Hillside loop" });
     const { cookie } = await signInHttp(baseUrl, owner.email, FIXTURE_PASSWORD);
     const sketch = await sketchPng();

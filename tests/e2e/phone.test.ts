@@ -16,7 +16,9 @@ import { testKnex, truncateAll } from "../support/db";
 import { TEST_PAYMENT_KEYS } from "../support/fakes";
 import {
   FIXTURE_PASSWORD,
+  makeHomeowner,
   makeJob,
+  makeProject,
   makeQuote,
   makeRequest,
   makeReviewer,
@@ -126,8 +128,10 @@ describe("the homeowner's pages on a phone", () => {
   it("steps, uploads, project, quotes, job and report fit a 390 px screen", async () => {
     // A delivered job with a sketch and a photo (for the pins and the report), and an open
     // request on another project of the same homeowner with two quotes.
-    const reviewer = await makeReviewer(knex);
-    const job = await makeJob(knex, "awaiting_payment", { reviewer, priceMinor: 12_000 });
+    const reviewer = await makeReviewer(knex, { displayName: "Sol Brook" });
+    const alex = await makeHomeowner(knex, { displayName: "Alex Morgan" });
+    const project = await makeProject(knex, alex, { title: "Roof loop, two flat plates" });
+    const job = await makeJob(knex, "awaiting_payment", { reviewer, project, priceMinor: 12_000 });
     const owner = job.homeowner;
     const { cookie } = await signInHttp(baseUrl, owner.email, FIXTURE_PASSWORD);
     const sketch = await sketchPng();
@@ -151,8 +155,12 @@ describe("the homeowner's pages on a phone", () => {
     await fundByCheckout(knex, owner, job.id, svc, fake);
     await deliverThroughData(knex, reviewer, job.id, baseUrl);
     const request = await makeRequest(knex, job.project);
-    await makeQuote(knex, request, await makeReviewer(knex), { priceMinor: 9_500 });
-    await makeQuote(knex, request, await makeReviewer(knex), { priceMinor: 14_000 });
+    await makeQuote(knex, request, await makeReviewer(knex, { displayName: "Ada Quill" }), {
+      priceMinor: 9_500,
+    });
+    await makeQuote(knex, request, await makeReviewer(knex, { displayName: "Bea Marsh" }), {
+      priceMinor: 14_000,
+    });
 
     const page = await signedInPage(browser, baseUrl, owner.email, "/dashboard", { phone: true });
     await check(page, "/dashboard");
