@@ -29,9 +29,15 @@ const baseUrl = inject("baseUrl");
  * Press Tab until the focused element matches the CSS selector (and starts with the text, when
  * one is given), or fail after `max` presses.
  */
-async function tabTo(page: Page, selector: string, text = "", max = 150): Promise<void> {
+async function tabTo(
+  page: Page,
+  selector: string,
+  text = "",
+  max = 150,
+  key: "Tab" | "Shift+Tab" = "Tab",
+): Promise<void> {
   for (let i = 0; i < max; i++) {
-    await page.keyboard.press("Tab");
+    await page.keyboard.press(key);
     const ok = await page.evaluate(
       ([sel, prefix]) => {
         const el = document.activeElement;
@@ -41,7 +47,7 @@ async function tabTo(page: Page, selector: string, text = "", max = 150): Promis
     );
     if (ok) return;
   }
-  throw new Error(`no ${selector} "${text}" reached with Tab within ${max} presses`);
+  throw new Error(`no ${selector} "${text}" reached with ${key} within ${max} presses`);
 }
 
 describe("the project steps with the keyboard alone", () => {
@@ -175,8 +181,8 @@ describe("the project steps with the keyboard alone", () => {
       });
     }
     await step("to the scald item's section by its link, its verdict and a pin", async () => {
-      await page.evaluate(() => window.scrollTo(0, 0));
-      await tabTo(page, `a[href="#${scaldSection}"]`);
+      // Back up to the sticky progress bar and take the section's link.
+      await tabTo(page, `a[href="#${scaldSection}"]`, "", 150, "Shift+Tab");
       await page.keyboard.press("Enter");
       await tabTo(page, 'article[data-item="scald"] input[type="radio"]');
       await page.keyboard.press("ArrowRight"); // Sound → Concern
@@ -194,10 +200,8 @@ describe("the project steps with the keyboard alone", () => {
         .toBe(`${keys.length} of ${keys.length} items answered`),
     );
     await step("the report: outcome, summary, delivery with Enter", async () => {
-      await page.evaluate(() => window.scrollTo(0, 0));
-      await tabTo(page, 'a[href="#report-draft"]');
-      await page.keyboard.press("Enter");
-      await tabTo(page, '#report-draft input[name="outcome"]');
+      // On from the scald item, past the section's last items, to the report.
+      await tabTo(page, '#report-draft input[name="outcome"]', "", 400);
       await page.keyboard.press("Space");
       await tabTo(page, "#report-draft textarea");
       await page.keyboard.type("A sound design; nothing to change before filling.");
