@@ -109,9 +109,21 @@ case "${1:-}" in
     log "npm test took $(( $(date +%s) - started )) s"
     exit $rc
     ;;
+  screenshots)
+    # Refreshes the README's screenshots (docs/screenshots/) from three browser-test files run
+    # against the test stack; the files' other screenshots are not written in this mode.
+    prepare
+    ensure_chromium
+    DB_TARGET=test npx tsx db/migrate.ts latest
+    log "build"; npx next build >/tmp/loopwright-build.log 2>&1 || { tail -60 /tmp/loopwright-build.log; exit 1; }
+    mkdir -p docs/screenshots
+    SCREENSHOTS_DIR=docs/screenshots DB_TARGET=test npx vitest run --project e2e \
+      tests/e2e/journey-homeowner.test.ts tests/e2e/journey-job.test.ts tests/e2e/phone.test.ts
+    du -ch docs/screenshots/*.png | tail -1
+    ;;
   stop)
     bash db/server.sh stop
     ;;
   *)
-    echo "usage: db/stack.sh start|dev|test|stop" >&2; exit 2 ;;
+    echo "usage: db/stack.sh start|dev|test|screenshots|stop" >&2; exit 2 ;;
 esac

@@ -24,7 +24,10 @@ export function ReceiptsLink({ job, role }: { job: JobView; role: string }) {
   if (role !== "homeowner" && role !== "admin") return null;
   if (!job.money.chargedMinor) return null;
   return (
-    <Link className="font-semibold text-copper-700 underline" href={`/jobs/${job.id}/receipts`}>
+    <Link
+      className="inline-flex min-h-11 items-center font-semibold text-copper-700 underline"
+      href={`/jobs/${job.id}/receipts`}
+    >
       Receipts
     </Link>
   );

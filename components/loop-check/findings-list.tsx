@@ -69,7 +69,7 @@ export function FindingsList({ findings }: FindingsListProps) {
                   <p className="mt-1 text-xs text-slate-500">Source: {plainSource(f.source)}</p>
                   {f.method ? (
                     <details className="mt-2 text-sm text-slate-700">
-                      <summary className="cursor-pointer font-medium text-slate-800">
+                      <summary className="cursor-pointer py-3 font-medium text-slate-800">
                         How this is worked out
                       </summary>
                       <p className="mt-1">{plainSource(f.method)}</p>

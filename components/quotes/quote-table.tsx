@@ -235,7 +235,7 @@ export function QuoteTable({
                         <button
                           type="button"
                           onClick={h.column.getToggleSortingHandler()}
-                          className="min-h-11 font-semibold underline-offset-2 hover:underline"
+                          className="min-h-11 min-w-11 font-semibold underline-offset-2 hover:underline"
                         >
                           {flexRender(h.column.columnDef.header, h.getContext())}{" "}
                           {sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : ""}

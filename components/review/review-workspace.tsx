@@ -477,7 +477,7 @@ function ItemCard(p: ItemCardProps) {
 
       {item.evidence.length ? (
         <details open className="rounded-lg bg-slate-50 p-3">
-          <summary className="cursor-pointer font-semibold">From the loop check</summary>
+          <summary className="cursor-pointer py-3 font-semibold">From the loop check</summary>
           <div className="mt-2">
             <Evidence findings={item.evidence} />
           </div>

@@ -26,6 +26,7 @@ describe("accessibility (axe-core) of the main pages in each role", () => {
   let browser: Browser;
   let knex: Knex;
   const ids: Record<string, number> = {};
+  let visitOwnerEmail = "";
 
   beforeAll(async () => {
     knex = testKnex();
@@ -41,6 +42,43 @@ describe("accessibility (axe-core) of the main pages in each role", () => {
       .first("id");
     const open = await knex("requests").where({ status: "open" }).orderBy("id").first("id");
     const job = await knex("jobs").where({ homeowner_id: hana.id }).orderBy("id").first("id");
+    // The review workspace, the report, the receipts and a site visit, from the demo's jobs.
+    const review = await knex("jobs")
+      .where({ reviewer_id: sol.id, state: "in_review" })
+      .orderBy("id")
+      .first("id");
+    const reported = await knex("jobs")
+      .where({ homeowner_id: hana.id })
+      .whereIn("state", ["delivered", "released", "disputed", "partially_refunded"])
+      .orderBy("id")
+      .first("id");
+    const solReported = await knex("jobs")
+      .where({ reviewer_id: sol.id })
+      .whereIn("state", ["delivered", "released", "disputed", "partially_refunded"])
+      .orderBy("id")
+      .first("id");
+    const charge = await knex("ledger_entries as l")
+      .join("jobs as j", "j.id", "l.job_id")
+      .where({ "j.homeowner_id": hana.id, "l.kind": "charge" })
+      .orderBy("l.id")
+      .first("l.id", "l.job_id");
+    const visit = await knex("jobs as j")
+      .join("requests as r", "r.id", "j.request_id")
+      .where({ "r.kind": "site_visit", "j.reviewer_id": sol.id })
+      .orderBy("j.id")
+      .first("j.id", "j.homeowner_id");
+    const visitOwner = await knex("users").where({ id: visit.homeowner_id }).first("email");
+    expect(review, "a demo job in review for the first reviewer").toBeDefined();
+    expect(reported, "a demo job with a delivered report for the first homeowner").toBeDefined();
+    Object.assign(ids, {
+      review: review.id,
+      reported: reported.id,
+      solReported: solReported.id,
+      chargeJob: charge.job_id,
+      charge: charge.id,
+      visit: visit.id,
+    });
+    visitOwnerEmail = visitOwner.email;
     Object.assign(ids, {
       hana: hana.id,
       sol: sol.id,
@@ -125,8 +163,15 @@ describe("accessibility (axe-core) of the main pages in each role", () => {
       ...systemSections.map((s) => `/projects/${ids.project}/edit/${s}`),
       `/requests/${ids.request}`,
       `/jobs/${ids.job}`,
+      `/jobs/${ids.reported}/report`,
+      `/jobs/${ids.chargeJob}/receipts`,
+      `/jobs/${ids.chargeJob}/receipts/${ids.charge}`,
       "/settings/notifications",
     ]);
+  }, 120_000);
+
+  it("the site visit, as its homeowner", async () => {
+    await audit(await signedIn(visitOwnerEmail), "homeowner", [`/jobs/${ids.visit}`]);
   }, 120_000);
 
   it("the reviewer's pages", async () => {
@@ -135,6 +180,9 @@ describe("accessibility (axe-core) of the main pages in each role", () => {
       "/board",
       `/requests/${ids.open}`,
       `/jobs/${ids.job}`,
+      `/jobs/${ids.review}/review`,
+      `/jobs/${ids.solReported}/report`,
+      `/jobs/${ids.visit}`,
       "/reviewer/profile",
       "/reviewer/credentials",
       "/reviewer/earnings",

@@ -45,7 +45,10 @@ async function HomeownerPanel({ user }: { user: CurrentUser }) {
           {projects.map((p) => (
             <li key={p.id} className="flex flex-wrap items-center gap-3 py-3">
               {p.worstLevel ? <LevelBadge level={p.worstLevel} /> : null}
-              <Link href={`/projects/${p.id}`} className="flex-1 font-semibold underline">
+              <Link
+                href={`/projects/${p.id}`}
+                className="flex min-h-11 flex-1 items-center font-semibold underline"
+              >
                 {p.title}
               </Link>
               <span className="text-sm text-slate-600">
@@ -143,7 +146,10 @@ async function JobsPanel({ user }: { user: CurrentUser }) {
         {jobs.map((j) => (
           <li key={j.id} className="flex flex-wrap items-center gap-3 py-3">
             <JobStateBadge state={j.state} viewer={viewer} />
-            <Link href={`/jobs/${j.id}`} className="flex-1 font-semibold underline">
+            <Link
+              href={`/jobs/${j.id}`}
+              className="flex min-h-11 flex-1 items-center font-semibold underline"
+            >
               {j.title}
             </Link>
             <span className="text-sm text-slate-600">{formatMoney(j.amountMinor, j.currency)}</span>

@@ -121,25 +121,31 @@ export default async function JobPage({
       <p className="flex flex-wrap gap-4">
         {user.role === "homeowner" ? (
           <Link
-            className="font-semibold text-copper-700 underline"
+            className="inline-flex min-h-11 items-center font-semibold text-copper-700 underline"
             href={`/projects/${job.projectId}`}
           >
             The project
           </Link>
         ) : null}
         <Link
-          className="font-semibold text-copper-700 underline"
+          className="inline-flex min-h-11 items-center font-semibold text-copper-700 underline"
           href={`/requests/${job.requestId}`}
         >
           The request and messages
         </Link>
         {user.role !== "homeowner" && job.reviewStartedAt ? (
-          <Link className="font-semibold text-copper-700 underline" href={`/jobs/${job.id}/review`}>
+          <Link
+            className="inline-flex min-h-11 items-center font-semibold text-copper-700 underline"
+            href={`/jobs/${job.id}/review`}
+          >
             The review workspace
           </Link>
         ) : null}
         {job.deliveredAt ? (
-          <Link className="font-semibold text-copper-700 underline" href={`/jobs/${job.id}/report`}>
+          <Link
+            className="inline-flex min-h-11 items-center font-semibold text-copper-700 underline"
+            href={`/jobs/${job.id}/report`}
+          >
             Read the report
           </Link>
         ) : null}

@@ -105,7 +105,10 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
                     ? `open until ${r.expiresAt.slice(0, 10)}`
                     : `posted ${r.createdAt.slice(0, 10)}`}
                 </span>
-                <Link className="underline" href={`/requests/${r.id}`}>
+                <Link
+                  className="inline-flex min-h-11 items-center underline"
+                  href={`/requests/${r.id}`}
+                >
                   Quotes
                 </Link>
                 {r.status === "open" ? (
@@ -165,7 +168,7 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
       <Cautions compact />
       <LoopCheckResults result={result} />
       <div className="flex flex-wrap items-center justify-between gap-3 text-sm">
-        <Link className="underline" href="/dashboard">
+        <Link className="inline-flex min-h-11 items-center underline" href="/dashboard">
           Back to the dashboard
         </Link>
         <Link className="underline" href={`/projects/${project.id}/first-fill`}>

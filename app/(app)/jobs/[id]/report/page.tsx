@@ -207,7 +207,7 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
                   ) : null}
                   {item.evidence.length ? (
                     <details className="mt-2 print:block">
-                      <summary className="cursor-pointer text-sm font-semibold">
+                      <summary className="cursor-pointer py-3 text-sm font-semibold">
                         From the loop check
                       </summary>
                       <div className="mt-2">
