@@ -7,6 +7,7 @@ import * as requestSnapshots from "./20261202_0010_request_snapshots";
 import * as payments from "./20261202_0011_payments";
 import * as thumbnails from "./20261202_0012_thumbnails";
 import * as review from "./20261202_0030_review";
+import * as boardIndexes from "./20261202_0080_board_indexes";
 
 /**
  * Every migration, in order. Listed here rather than read from the folder so the same source
@@ -22,6 +23,7 @@ const MIGRATIONS: Record<string, Knex.Migration> = {
   "20261202_0011_payments.ts": payments,
   "20261202_0012_thumbnails.ts": thumbnails,
   "20261202_0030_review.ts": review,
+  "20261202_0080_board_indexes.ts": boardIndexes,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {
