@@ -12,7 +12,7 @@
  */
 import bcrypt from "bcryptjs";
 import type { Knex } from "knex";
-import { seedDemo } from "@/db/seeds/demo";
+import { DEMO_USERS, seedDemo } from "@/db/seeds/demo";
 import { demoSystem } from "@/lib/calc/demo-system";
 import { runLoopCheck } from "@/lib/calc/loop-check";
 import { buildChecklist } from "@/lib/checklist/build";
@@ -22,6 +22,8 @@ import { systemSchema } from "@/lib/validation/system";
 import { migrationSource } from "@/db/migrations/index";
 
 export const BASE = 1_000_000;
+/** Generated homeowners are HOMEOWNER_BASE + 1 … + 10,000. */
+export const HOMEOWNER_BASE = BASE + 100_000;
 export const COUNTS = {
   reviewers: 5_000,
   homeowners: 10_000,
@@ -66,7 +68,7 @@ export async function seedBenchData(knex: Knex): Promise<DatasetSummary> {
   });
   const C = COUNTS;
   const R0 = BASE; // reviewers: BASE+1 … BASE+5000
-  const H0 = BASE + 100_000; // homeowners
+  const H0 = HOMEOWNER_BASE;
   const run = (sql: string, bindings: Knex.RawBinding[] = []) => knex.raw(sql, bindings);
 
   await run("SET SESSION foreign_key_checks = 0, unique_checks = 0");
@@ -183,6 +185,13 @@ export async function seedBenchData(knex: Knex): Promise<DatasetSummary> {
             CONCAT('bench_', j.id), CONCAT('bench:', j.id, ':', k.seq), j.funded_at
      FROM jobs j JOIN seq_1_to_2 k WHERE j.funded_at IS NOT NULL AND j.id > ?`,
     [BASE],
+  );
+  // The demo's first verified reviewer signs in for the bench: give it a centre point in the
+  // middle of the generated sites, so the distance sort and filter have something to measure.
+  await run(
+    `UPDATE reviewer_profiles SET centre_lat = 52.5, centre_lng = -2.0
+     WHERE user_id = (SELECT id FROM users WHERE email = ?)`,
+    [DEMO_USERS.reviewers[0].email],
   );
   // BENCH HOOK (review workspace): once the checklist-answer tables land, add the generated
   // answers here (e.g. one row per catalogue item for each in_review/delivered job's report),
