@@ -9,7 +9,7 @@
  * project, the loop check's input messages and the property tests' generator all derive from
  * the schema and these words.
  */
-import { z } from "@/lib/zod";
+import { z } from "zod";
 import { REGIONS, type RegionId } from "@/lib/regions";
 import { COPPER_TUBES, type CopperTubeId } from "@/lib/calc/tubes";
 import { systemSchema, systemSections, type SystemInput, type SystemSection } from "./system";
