@@ -186,6 +186,17 @@ async function measure(name: string, url: string, cookie = ""): Promise<Load> {
   return r;
 }
 
+/** Wait until requests cut off by the last run have left the server (health answers quickly). */
+async function drain(base: string) {
+  const until = Date.now() + 60_000;
+  while (Date.now() < until) {
+    const t0 = performance.now();
+    await fetch(`${base}/api/health`).catch(() => undefined);
+    if (performance.now() - t0 < 100) return;
+    await sleep(500);
+  }
+}
+
 /** Median latency with one connection: what one request costs, without queueing. */
 async function median(url: string, cookie: string) {
   await load(url, cookie, 1, 1);
@@ -400,7 +411,9 @@ async function main() {
   // The routes under load.
   const typical = "kind=remote_check&region=south-west";
   const deepCursor = await pageCursor(A, reviewer, "", 200);
+  // JSON first, pages after: a page that saturates the server leaves work queued behind it.
   const routes: Record<string, [string, string]> = {
+    "constant JSON (floor)": [`${A}/api/bench/constant`, reviewer],
     "board, first page": [`${A}/api/board`, reviewer],
     "board, typical filter": [`${A}/api/board?${typical}`, reviewer],
     "board, page 200": [`${A}/api/board?cursor=${encodeURIComponent(deepCursor ?? "")}`, reviewer],
@@ -409,7 +422,6 @@ async function main() {
     "landing page": [`${A}/`, ""],
     "loop check page": [`${A}/loop-check`, ""],
     // BENCH HOOK (review workspace): the checklist-item autosave POST goes here once it lands.
-    "constant JSON (floor)": [`${A}/api/bench/constant`, reviewer],
   };
   for (const [name, [url, cookie]] of Object.entries(routes)) {
     const res = await fetch(url, { headers: cookie ? { cookie } : {}, redirect: "manual" });
@@ -460,6 +472,7 @@ async function main() {
     rss.reset();
     loads[name] = await measure(name, url, cookie);
     if (name.startsWith("board")) boardRss = Math.max(boardRss, rss.peak());
+    await drain(A);
   }
   await stopChild(appA).catch(() => undefined);
   // The bare baseline runs with the app stopped, as the app runs without it.
