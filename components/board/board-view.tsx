@@ -7,15 +7,14 @@ import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { REGIONS, regionName } from "@/lib/regions";
 import { formatMoney } from "@/lib/money";
 import { currencySymbol, SERVICE_LABELS, serviceLabel } from "@/lib/labels";
-import type { BoardPage } from "@/lib/types/board";
+import { BOARD_FILTER_KEYS, type BoardPage } from "@/lib/types/board";
 import type { Level } from "@/lib/calc/findings";
-import { BOARD_FILTERS } from "@/lib/validation/board";
 import { Button } from "@/components/ui/button";
 import { inputClass } from "@/components/ui/field";
 import { LevelBadge } from "@/components/loop-check/level-badge";
 
 // Read from the shared schema, so a new filter cannot be dropped on its way to the route.
-const FILTERS = BOARD_FILTERS;
+const FILTERS = BOARD_FILTER_KEYS;
 
 /** A refused board query: the message, and each field's own message to show beside it. */
 class BoardError extends Error {

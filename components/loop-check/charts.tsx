@@ -1,25 +1,21 @@
 "use client";
 
-import {
-  CartesianGrid,
-  Line,
-  LineChart,
-  ReferenceDot,
-  ReferenceLine,
-  ResponsiveContainer,
-  Tooltip,
-  XAxis,
-  YAxis,
-} from "recharts";
+import dynamic from "next/dynamic";
 import type { LoopCheckResult } from "@/lib/calc/loop-check";
+
+// The chart library loads after the page, in its own chunk; the figure, its caption and its
+// text description are in the page from the start, and the box keeps its height meanwhile.
+const PressurePlot = dynamic(() => import("./chart-plots").then((m) => m.PressurePlot), {
+  ssr: false,
+});
+const FreezePlot = dynamic(() => import("./chart-plots").then((m) => m.FreezePlot), {
+  ssr: false,
+});
 
 type Charts = LoopCheckResult["charts"];
 
 /** Loop pressure from cold fill to the highest liquid temperature, the stagnation point and the relief setting. */
 export function PressureChart({ data }: { data: NonNullable<Charts["pressure"]> }) {
-  const top = Math.ceil(
-    Math.max(data.reliefBar, ...data.points.map((p) => p.pressureBar ?? 0)) + 0.5,
-  );
   return (
     <figure className="rounded-card border border-slate-200 bg-white p-4">
       <figcaption className="mb-2 font-semibold">
@@ -30,41 +26,7 @@ export function PressureChart({ data }: { data: NonNullable<Charts["pressure"]> 
         role="img"
         aria-label={`Loop pressure rises from ${data.fillBar} bar cold; relief valve at ${data.reliefBar} bar; about ${data.stagnation.pressureBar ?? "over the relief setting"} bar at stagnation.`}
       >
-        <ResponsiveContainer width="100%" height="100%">
-          <LineChart data={data.points} margin={{ top: 10, right: 20, bottom: 20, left: 0 }}>
-            <CartesianGrid stroke="#e2e8f0" />
-            <XAxis
-              dataKey="tempC"
-              type="number"
-              domain={["dataMin", Math.max(200, data.stagnation.tempC)]}
-              unit=" °C"
-              tick={{ fontSize: 12 }}
-            />
-            <YAxis domain={[0, top]} unit=" bar" width={56} tick={{ fontSize: 12 }} />
-            <Tooltip
-              formatter={(v) => [`${v} bar`, "pressure"]}
-              labelFormatter={(l) => `${l} °C`}
-            />
-            <ReferenceLine y={data.reliefBar} stroke="#b42318" strokeDasharray="6 4" />
-            <Line
-              type="monotone"
-              dataKey="pressureBar"
-              stroke="#9d4f25"
-              strokeWidth={3}
-              dot={false}
-              isAnimationActive={false}
-            />
-            {data.stagnation.pressureBar !== null ? (
-              <ReferenceDot
-                x={data.stagnation.tempC}
-                y={data.stagnation.pressureBar}
-                r={6}
-                fill="#f8c537"
-                stroke="#7e3f1f"
-              />
-            ) : null}
-          </LineChart>
-        </ResponsiveContainer>
+        <PressurePlot data={data} />
       </div>
       {/* The marks' words sit below the plot, where they never overlap the curve on a phone. */}
       <ul className="mt-2 flex flex-wrap gap-x-4 gap-y-1 text-sm text-slate-700">
@@ -101,33 +63,7 @@ export function FreezeChart({ data }: { data: NonNullable<Charts["freeze"]> }) {
         role="img"
         aria-label={`Freezing point falls as glycol rises; site minimum ${data.designMinC} °C; chosen mix ${data.percent} %.`}
       >
-        <ResponsiveContainer width="100%" height="100%">
-          <LineChart data={data.points} margin={{ top: 10, right: 20, bottom: 20, left: 0 }}>
-            <CartesianGrid stroke="#e2e8f0" />
-            <XAxis
-              dataKey="percent"
-              type="number"
-              domain={[0, 60]}
-              unit=" %"
-              tick={{ fontSize: 12 }}
-            />
-            <YAxis unit=" °C" width={56} domain={[-55, 5]} tick={{ fontSize: 12 }} />
-            <Tooltip
-              formatter={(v) => [`${v} °C`, "freezing point"]}
-              labelFormatter={(l) => `${l} % by mass`}
-            />
-            <ReferenceLine y={data.designMinC} stroke="#2f5f8a" strokeDasharray="6 4" />
-            <ReferenceLine x={data.percent} stroke="#9d4f25" />
-            <Line
-              type="monotone"
-              dataKey="freezeC"
-              stroke="#9d4f25"
-              strokeWidth={3}
-              dot={false}
-              isAnimationActive={false}
-            />
-          </LineChart>
-        </ResponsiveContainer>
+        <FreezePlot data={data} />
       </div>
       <ul className="mt-2 flex flex-wrap gap-x-4 gap-y-1 text-sm text-slate-700">
         <li className="flex items-center gap-2">

@@ -10,6 +10,7 @@ import * as rateLimits from "./20261202_0020_rate_limits";
 import * as sessionVersion from "./20261202_0021_session_version";
 import * as review from "./20261202_0030_review";
 import * as mailAttachments from "./20261202_0050_mail_attachments";
+import * as boardIndexes from "./20261202_0080_board_indexes";
 
 /**
  * Every migration, in order. Listed here rather than read from the folder so the same source
@@ -28,6 +29,7 @@ const MIGRATIONS: Record<string, Knex.Migration> = {
   "20261202_0021_session_version.ts": sessionVersion,
   "20261202_0030_review.ts": review,
   "20261202_0050_mail_attachments.ts": mailAttachments,
+  "20261202_0080_board_indexes.ts": boardIndexes,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

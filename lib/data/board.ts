@@ -3,8 +3,8 @@ import type { BoardQuery } from "@/lib/validation/board";
 import { DAY_MS, sqlDateTime } from "@/lib/time";
 import type { Actor } from "./actor";
 import type { Db } from "./db";
-import { forbidden, unprocessable } from "./errors";
-import { isVerifiedReviewer } from "./reviewers";
+import { forbidden, HttpError, unauthorized, unprocessable } from "./errors";
+import { getBoardReviewer } from "./reviewers";
 import type { BoardItem, BoardPage } from "@/lib/types/board";
 
 export type { BoardItem, BoardPage } from "@/lib/types/board";
@@ -21,44 +21,41 @@ interface BoardRow {
   window_end: string | null;
   created_at: string;
   expires_at: string;
-  project_id: number;
+  worst_level: string | null;
   distance_km: number | string | null;
 }
 
 /**
- * The request board: open, unexpired requests, newest first (or by budget), keyset-paginated so
- * page 50 costs what page 1 does. Only verified reviewers see it, and it carries no name, address
- * or e-mail of the homeowner. Served by the requests_board_* indexes (see the EXPLAIN test).
+ * The request board: open, unexpired requests, newest first (or by budget, distance or the
+ * soonest visit window), keyset-paginated on every sort so page 200 costs what page 1 does. Only
+ * verified reviewers see it, and it carries no name, address or e-mail of the homeowner.
+ *
+ * Two round trips per page: the reviewer's verified state and centre point in one query
+ * (`getBoardReviewer`), then the board rows with the project's loop-check level joined by primary
+ * key. Served by the requests_board_* indexes (see the EXPLAIN test).
  */
 export async function listBoard(db: Db, actor: Actor, q: BoardQuery): Promise<BoardPage> {
-  if (actor.role !== "reviewer" || !(await isVerifiedReviewer(db, actor.id)))
-    throw forbidden("The board is open to verified reviewers.");
+  if (actor.role !== "reviewer") throw forbidden("The board is open to verified reviewers.");
+  const me = await getBoardReviewer(db, actor.id);
+  if (!me) throw unauthorized();
+  if (actor.sessionVersion !== undefined && actor.sessionVersion !== me.sessionVersion)
+    throw unauthorized();
+  if (!me.verified) throw forbidden("The board is open to verified reviewers.");
   const limit = q.limit ?? 20;
-  const profile = await db("reviewer_profiles")
-    .where({ user_id: actor.id })
-    .first("centre_lat", "centre_lng");
-  const centre =
-    profile?.centre_lat != null && profile?.centre_lng != null
-      ? { lat: Number(profile.centre_lat), lng: Number(profile.centre_lng) }
-      : null;
+  const centre = me.centre;
   if ((q.withinKm || q.sort === "distance") && !centre) {
     throw unprocessable(
       "Set your site-visit centre point in your profile to filter or sort by distance.",
       { withinKm: ["Needs your centre point"] },
     );
   }
-  const query = buildBoardQuery(db, q, limit, centre);
-  const rows = (await query) as BoardRow[];
+  const rows = (await buildBoardQuery(db, q, limit, centre)) as BoardRow[];
+  return toBoardPage(rows, q.sort, limit);
+}
+
+/** Rows (limit + 1 of them) to the page the route answers; the extra row only says "more". */
+export function toBoardPage(rows: BoardRow[], sort: BoardQuery["sort"], limit: number): BoardPage {
   const page = rows.slice(0, limit);
-  // The loop-check level comes from the projects in a second, primary-key lookup, so the board
-  // query itself touches only the requests_board_* indexes.
-  const levels = new Map<number, string | null>(
-    (
-      await db("projects")
-        .whereIn("id", [...new Set(page.map((r) => r.project_id))])
-        .select("id", "worst_level")
-    ).map((p) => [Number(p.id), p.worst_level]),
-  );
   const last = page.at(-1);
   return {
     items: page.map((r) => ({
@@ -73,19 +70,22 @@ export async function listBoard(db: Db, actor: Actor, q: BoardQuery): Promise<Bo
       windowEnd: r.window_end,
       createdAt: r.created_at,
       expiresAt: r.expires_at,
-      worstLevel: levels.get(Number(r.project_id)) ?? null,
+      worstLevel: r.worst_level ?? null,
       distanceKm: r.distance_km === null ? null : Math.round(Number(r.distance_km) * 10) / 10,
     })),
-    nextCursor:
-      rows.length > limit && last
-        ? q.sort === "distance" || q.sort === "soonest"
-          ? `o:${(q.cursor?.startsWith("o:") ? Number(q.cursor.slice(2)) : 0) + limit}`
-          : `${q.sort === "budget" ? last.budget_max_minor : last.created_at}|${last.id}`
-        : null,
+    nextCursor: rows.length > limit && last ? `${cursorValue(last, sort)}|${last.id}` : null,
   };
 }
 
-/** The board's query on its own, so tests can EXPLAIN exactly what the route runs. */
+function cursorValue(r: BoardRow, sort: BoardQuery["sort"]): string {
+  if (sort === "budget") return String(r.budget_max_minor);
+  if (sort === "soonest") return r.window_start ?? "";
+  // The exact double MariaDB computed, so the next page starts right after this row.
+  if (sort === "distance") return String(Number(r.distance_km));
+  return r.created_at;
+}
+
+/** The reviewer's site-visit centre point. */
 export interface Centre {
   lat: number;
   lng: number;
@@ -99,10 +99,15 @@ function distanceSql(db: Db, c: Centre) {
   );
 }
 
+/** km per degree of latitude on the haversine's sphere (6371 km × π / 180 = 111.195 km). */
+const KM_PER_DEGREE_LAT = 111.19;
+
 /**
- * The board's query on its own, so tests can EXPLAIN exactly what the route runs. Newest and
- * budget use keyset cursors; distance and soonest-visit (site visits only, a small set) use an
- * offset cursor `o:N`.
+ * The board's query on its own, so tests can EXPLAIN exactly what the route runs. Every sort
+ * pages by a keyset cursor `<sort value>|<id>` (the row comparison written out as OR, which
+ * MariaDB can use as an index range); no OFFSET. The distance filter adds the latitude band the
+ * circle lies in (a site within k km is within k / 111.19 degrees of latitude), which changes no
+ * result but lets requests_board_site narrow the rows before the distance is worked out.
  */
 export function buildBoardQuery(
   db: Db,
@@ -110,9 +115,8 @@ export function buildBoardQuery(
   limit: number,
   centre: Centre | null = null,
 ): Knex.QueryBuilder {
-  const keyset = q.sort === "newest" || q.sort === "budget";
-  const sortColumn = q.sort === "budget" ? "r.budget_max_minor" : "r.created_at";
   const b = db("requests as r")
+    .leftJoin("projects as p", "p.id", "r.project_id")
     .where("r.status", "open")
     .andWhere("r.expires_at", ">", sqlDateTime());
   if (q.kind) b.where("r.kind", q.kind);
@@ -123,31 +127,52 @@ export function buildBoardQuery(
   if (q.postedWithinDays)
     b.where("r.created_at", ">=", sqlDateTime(new Date(), -q.postedWithinDays * DAY_MS));
   if (q.withinKm && centre)
-    b.whereNotNull("r.site_lat").where(distanceSql(db, centre), "<=", q.withinKm);
+    b.whereBetween("r.site_lat", [
+      centre.lat - q.withinKm / KM_PER_DEGREE_LAT,
+      centre.lat + q.withinKm / KM_PER_DEGREE_LAT,
+    ]).where(distanceSql(db, centre), "<=", q.withinKm);
   if (q.sort === "distance") b.whereNotNull("r.site_lat");
   if (q.sort === "soonest") b.whereNotNull("r.window_start");
-  if (q.cursor && keyset && q.cursor.includes("|")) {
-    const [value, id] = q.cursor.split("|") as [string, string];
+
+  // The sort key, its direction (the id always breaks ties downwards) and the cursor's value.
+  const key =
+    q.sort === "budget"
+      ? { col: "r.budget_max_minor", dir: "desc" as const }
+      : q.sort === "soonest"
+        ? { col: "r.window_start", dir: "asc" as const }
+        : q.sort === "distance" && centre
+          ? { col: distanceSql(db, centre), dir: "asc" as const }
+          : { col: "r.created_at", dir: "desc" as const };
+  const cursor = q.cursor?.includes("|") ? q.cursor.split("|") : null;
+  if (cursor) {
+    const [raw, id] = cursor as [string, string];
+    const numeric = q.sort === "distance" || q.sort === "budget";
+    const value: string | number = numeric ? Number(raw) : raw;
+    if (numeric && !Number.isFinite(value))
+      throw new HttpError(400, "Some filters are not valid.", {
+        cursor: ["Not a valid page cursor"],
+      });
+    const beyond = key.dir === "desc" ? "<" : ">";
     // Written out as OR: MariaDB does not use a row comparison as an index range.
-    b.where((w) =>
-      w
-        .where(sortColumn, "<", value)
-        .orWhere((x) => x.where(sortColumn, value).andWhere("r.id", "<", Number(id))),
-    );
+    const col = key.col;
+    b.where((w) => {
+      if (typeof col === "string") w.where(col, beyond, value);
+      else w.where(col, beyond, value);
+      w.orWhere((x) => {
+        if (typeof col === "string") x.where(col, value);
+        else x.where(col, "=", value);
+        x.andWhere("r.id", "<", Number(id));
+      });
+    });
   }
-  if (q.sort === "distance" && centre)
-    b.orderByRaw("? ASC", [distanceSql(db, centre)]).orderBy("r.id", "desc");
-  else if (q.sort === "soonest")
+  if (typeof key.col === "string") {
     b.orderBy([
-      { column: "r.window_start", order: "asc" },
+      { column: key.col, order: key.dir },
       { column: "r.id", order: "desc" },
     ]);
-  else
-    b.orderBy([
-      { column: sortColumn, order: "desc" },
-      { column: "r.id", order: "desc" },
-    ]);
-  if (!keyset && q.cursor?.startsWith("o:")) b.offset(Number(q.cursor.slice(2)));
+  } else {
+    b.orderByRaw(`? ${key.dir.toUpperCase()}`, [key.col]).orderBy("r.id", "desc");
+  }
   return b
     .limit(limit + 1)
     .select(
@@ -162,7 +187,7 @@ export function buildBoardQuery(
       "r.window_end",
       "r.created_at",
       "r.expires_at",
-      "r.project_id",
+      "p.worst_level",
       centre
         ? db.raw("? AS distance_km", [distanceSql(db, centre)])
         : db.raw("NULL AS distance_km"),

@@ -58,6 +58,57 @@ export async function getVerificationStatus(
   };
 }
 
+/** What the board needs to know about the reviewer asking: read in one round trip. */
+export interface BoardReviewer {
+  verified: boolean;
+  /** users.session_version: a session token with an older one has been ended. */
+  sessionVersion: number;
+  centre: { lat: number; lng: number } | null;
+}
+
+/**
+ * The verified rule of getVerificationStatus (a profile, not suspended, every required kind
+ * verified and unexpired today) and the centre point, in one query, for the board's JSON route;
+ * null when the user is gone. A user who is no longer a reviewer is not verified.
+ */
+export async function getBoardReviewer(
+  db: Db,
+  reviewerId: number,
+  now = new Date(),
+): Promise<BoardReviewer | null> {
+  const row = await db("users as u")
+    .leftJoin("reviewer_profiles as rp", "rp.user_id", "u.id")
+    .where("u.id", reviewerId)
+    .first(
+      "u.role",
+      "u.session_version",
+      "rp.user_id as profile",
+      "rp.suspended_at",
+      "rp.centre_lat",
+      "rp.centre_lng",
+      db("credentials as c")
+        .countDistinct("c.kind")
+        .whereRaw("c.reviewer_id = u.id")
+        .andWhere("c.status", "verified")
+        .andWhere("c.expires_on", ">=", sqlDate(now))
+        .whereIn("c.kind", REQUIRED_CREDENTIAL_KINDS)
+        .as("kinds"),
+    );
+  if (!row) return null;
+  return {
+    verified:
+      row.role === "reviewer" &&
+      row.profile !== null &&
+      row.suspended_at === null &&
+      Number(row.kinds) === REQUIRED_CREDENTIAL_KINDS.length,
+    sessionVersion: Number(row.session_version ?? 0),
+    centre:
+      row.centre_lat != null && row.centre_lng != null
+        ? { lat: Number(row.centre_lat), lng: Number(row.centre_lng) }
+        : null,
+  };
+}
+
 export async function isVerifiedReviewer(
   db: Db,
   reviewerId: number,

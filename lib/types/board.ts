@@ -20,3 +20,19 @@ export interface BoardPage {
   items: BoardItem[];
   nextCursor: string | null;
 }
+
+/**
+ * The filters a person sets on the board page: every field of the board query but the paging
+ * ones. Kept here, free of zod, so the board page's script does not carry the schema library;
+ * lib/validation/board.ts checks at compile time that it matches the schema's fields.
+ */
+export const BOARD_FILTER_KEYS = [
+  "kind",
+  "collectorType",
+  "region",
+  "budgetMin",
+  "budgetMax",
+  "postedWithinDays",
+  "withinKm",
+  "sort",
+] as const;

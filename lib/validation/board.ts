@@ -1,5 +1,6 @@
 import { z } from "@/lib/zod";
 import { REGION_IDS } from "@/lib/regions";
+import { BOARD_FILTER_KEYS } from "@/lib/types/board";
 
 const optionalNumber = (schema: z.ZodNumber) =>
   z.preprocess(
@@ -34,6 +35,13 @@ export const boardQuerySchema = z
 export type BoardQuery = z.output<typeof boardQuerySchema>;
 
 /** The filters a person sets on the board page: every field of the query but the paging ones. */
-export const BOARD_FILTERS = Object.keys(boardQuerySchema.shape).filter(
-  (k): k is Exclude<keyof BoardQuery, "cursor" | "limit"> => k !== "cursor" && k !== "limit",
-);
+export const BOARD_FILTERS = BOARD_FILTER_KEYS;
+type FilterKey = Exclude<keyof BoardQuery, "cursor" | "limit">;
+type Listed = (typeof BOARD_FILTER_KEYS)[number];
+// A field added to the schema (or a filter dropped from it) without the list is a type error.
+const filtersMatchSchema: [FilterKey] extends [Listed]
+  ? [Listed] extends [FilterKey]
+    ? true
+    : never
+  : never = true;
+void filtersMatchSchema;

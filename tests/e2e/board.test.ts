@@ -38,6 +38,25 @@ describe("the request board in Chromium", () => {
     );
   });
 
+  it("checks the session token on the JSON route and the reviewer's row on every call", async () => {
+    const get = (cookie: string) => fetch(`${baseUrl}/api/board`, { headers: { cookie } });
+    // A forged or garbled token is signed out, not an error page.
+    expect((await get("next-auth.session-token=not-a-token")).status).toBe(401);
+    const sol = await signInHttp(baseUrl, DEMO_USERS.reviewers[0].email, DEMO_PASSWORD);
+    expect((await get(sol.cookie)).status).toBe(200);
+    // A pending reviewer holds a reviewer's token but is not verified.
+    const dev = await signInHttp(baseUrl, DEMO_USERS.reviewers[2].email, DEMO_PASSWORD);
+    expect((await get(dev.cookie)).status).toBe(403);
+    // Suspended after signing in: the next call is refused, though the token is still valid.
+    const id = (await knex("users").where({ email: DEMO_USERS.reviewers[0].email }).first("id")).id;
+    await knex("reviewer_profiles").where({ user_id: id }).update({ suspended_at: knex.fn.now() });
+    try {
+      expect((await get(sol.cookie)).status).toBe(403);
+    } finally {
+      await knex("reviewer_profiles").where({ user_id: id }).update({ suspended_at: null });
+    }
+  });
+
   it("filters by kind with the filter kept in the URL", async () => {
     const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
     context.setDefaultTimeout(15_000);

@@ -85,6 +85,16 @@ describe("the request board against the real MariaDB", () => {
     expect(await statusOf(listBoard(knex, { id: 1, role: "homeowner" }, q()))).toBe(403);
   });
 
+  it("refuses a session token whose version was ended (sign-out, reset, suspension)", async () => {
+    const row = await knex("users").where({ id: verified.id }).first("session_version");
+    const current = Number(row.session_version);
+    const page = await listBoard(knex, { ...verified, sessionVersion: current }, q());
+    expect(page.items.length).toBeGreaterThan(0);
+    expect(await statusOf(listBoard(knex, { ...verified, sessionVersion: current - 1 }, q()))).toBe(
+      401,
+    );
+  });
+
   it("pages through every open, unexpired request once, newest first", async () => {
     const items = await all({});
     const expected = await knex("requests")
@@ -192,49 +202,66 @@ describe("the request board against the real MariaDB", () => {
     expect(mine).toEqual([ids[2], ids[0], ids[1]]);
   });
 
-  it("pages the distance and soonest sorts with the offset cursor: every row once, none skipped", async () => {
-    // Runs after the test above, which gave the reviewer a centre and added three site visits.
-    for (const sort of ["distance", "soonest"]) {
-      const whole = await listBoard(knex, verified, q({ sort, limit: "50" }));
-      expect(whole.nextCursor).toBeNull();
-      expect(whole.items.length, sort).toBeGreaterThanOrEqual(3);
-      for (const limit of ["1", "2"]) {
-        const seen: number[] = [];
-        const cursors: string[] = [];
-        let cursor: string | null = null;
-        do {
-          const page = await listBoard(
-            knex,
-            verified,
-            q({ sort, limit, ...(cursor ? { cursor } : {}) }),
-          );
-          expect(page.items.length).toBeLessThanOrEqual(Number(limit));
-          seen.push(...page.items.map((i) => i.id));
-          cursor = page.nextCursor;
-          if (cursor) cursors.push(cursor);
-        } while (cursor);
-        expect(seen, `${sort} by ${limit}`).toEqual(whole.items.map((i) => i.id));
-        // The offset grows by the page size each time: o:1, o:2 … or o:2, o:4 …
-        expect(cursors).toEqual(cursors.map((_, i) => `o:${(i + 1) * Number(limit)}`));
-      }
+  it("pages by keyset on every sort: each open request once, in order, with no OFFSET", async () => {
+    for (const sort of ["newest", "budget", "distance", "soonest"]) {
+      const items = await all({ sort });
+      expect(new Set(items.map((i) => i.id)).size, sort).toBe(items.length);
+      const second = await listBoard(knex, verified, q({ sort, limit: "2" }));
+      const built = buildBoardQuery(knex, q({ sort, cursor: second.nextCursor! }), 20, {
+        lat: 52,
+        lng: -3.5,
+      }).toSQL().sql;
+      expect(built, sort).not.toMatch(/offset/i);
     }
+    const distances = (await all({ sort: "distance" })).map((i) => i.distanceKm!);
+    expect(distances).toEqual([...distances].sort((a, b) => a - b));
+    const windows = (await all({ sort: "soonest" })).map((i) => i.windowStart!);
+    expect(windows).toEqual([...windows].sort());
+    // Site visits with a window: as many as the database holds (the generated ones have none).
+    const [n] = await knex("requests")
+      .where({ status: "open" })
+      .whereNotNull("window_start")
+      .andWhere("expires_at", ">", sql(new Date()))
+      .count({ n: "*" });
+    expect(windows.length).toBe(Number(n!.n));
+    expect(await statusOf(listBoard(knex, verified, q({ sort: "budget", cursor: "x|1" })))).toBe(
+      400,
+    );
   });
 
-  it("is served by an index, not a table scan", async () => {
+  it("is served by an index, not a table scan, for every filter and sort", async () => {
     const cases: Record<string, string>[] = [
       {},
       { kind: "site_visit" },
       { kind: "remote_check", region: "wales" },
       { region: "london" },
+      { collectorType: "evacuated_tube" },
+      { budgetMin: "150" },
+      { budgetMax: "120" },
+      { postedWithinDays: "2" },
+      { withinKm: "100" },
+      { sort: "budget" },
+      { sort: "budget", kind: "site_visit" },
+      { sort: "distance" },
+      { sort: "distance", withinKm: "50" },
+      { sort: "soonest" },
+      { sort: "soonest", region: "wales" },
+      { cursor: "2026-01-01 00:00:00.000|100" },
+      { sort: "budget", cursor: "15000|100" },
+      { sort: "soonest", cursor: "2030-01-01|100" },
     ];
     for (const raw of cases) {
-      const built = buildBoardQuery(knex, q(raw), 20).toSQL().toNative();
+      const built = buildBoardQuery(knex, q(raw), 20, { lat: 52, lng: -3.5 }).toSQL().toNative();
       const [plan] = (await knex.raw(`EXPLAIN ${built.sql}`, built.bindings)) as [
         { table: string; key: string | null; type: string }[],
       ];
       const requests = plan.find((p) => p.table === "r")!;
       expect(requests.type, JSON.stringify(raw)).not.toBe("ALL");
-      expect(requests.key, JSON.stringify(raw)).toMatch(/^requests_board/);
+      // On this small table the optimizer may take the expiry range instead of the sort's index;
+      // `npm run bench` prints the plans on the 100,000-request dataset, where each sort uses its
+      // requests_board_* index.
+      expect(requests.key, JSON.stringify(raw)).toMatch(/^requests_(board|expiry)/);
+      expect(plan.find((p) => p.table === "p")?.key, JSON.stringify(raw)).toBe("PRIMARY");
     }
   });
 });

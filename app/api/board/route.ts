@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { requireRole } from "@/lib/server/auth/session";
+import { requireTokenActor } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
 import { HttpError } from "@/lib/data/errors";
 import { errorResponse } from "@/lib/server/http";
@@ -9,7 +9,8 @@ import { boardQuerySchema } from "@/lib/validation/board";
 /** The request board as JSON, for the board page's client-side fetching. */
 export async function GET(req: Request) {
   try {
-    const user = await requireRole("reviewer");
+    // listBoard reads the reviewer's row (role, suspension, credentials) in its own query.
+    const user = await requireTokenActor("reviewer");
     const params = Object.fromEntries(new URL(req.url).searchParams);
     const parsed = boardQuerySchema.safeParse(params);
     if (!parsed.success) {
