@@ -124,9 +124,22 @@ describe("homeowner journeys in Chromium", () => {
         .orderBy("id")
         .pluck("tag");
       expect(tags[1]).toBe("vessel");
-      // TODO(tagging): tagging a photo to checklist items at upload comes with the `after`
-      // branch; once merged, tag the vessel photo to "vessel-rating" here and assert the
-      // attachment_items row.
+    });
+
+    await step("tag the vessel photo to the check it shows", async () => {
+      const photoId = await knex("attachments")
+        .where({ project_id: projectId, purpose: "photo", tag: "vessel" })
+        .first("id");
+      const vessel = page.locator('[data-guidance="vessel-rating"]');
+      expect(await vessel.getAttribute("data-has-photo")).toBe("false");
+      const tagForm = page.locator(`[data-photo-tags="${photoId.id}"]`);
+      await tagForm.getByLabel("Expansion vessel rating").check();
+      await tagForm.getByRole("button", { name: /Save the checks/ }).click();
+      await tagForm.getByText("Saved: this photo shows 1 check.").waitFor();
+      await expect.poll(() => vessel.getAttribute("data-has-photo")).toBe("true");
+      expect(
+        await knex("attachment_items").where({ attachment_id: photoId.id }).pluck("item_key"),
+      ).toEqual(["vessel-rating"]);
     });
 
     await step("read the loop check", async () => {
@@ -193,12 +206,16 @@ describe("homeowner journeys in Chromium", () => {
       expect(await page.getByText(/Advisory only/).count()).toBeGreaterThan(0);
     });
     await step("before posting", async () => {
-      // TODO(safety gate): the ux helper adds a gate before posting a request whose loop check
-      // has a `stop` (an acknowledgement the homeowner must tick). Until it lands the form posts
-      // as usual; assert the gate here once merged (a visible warning inside the request form
-      // and a refused post without the acknowledgement).
-      const form = page.getByRole("button", { name: "Post the request" });
-      await form.waitFor();
+      // The safety gate: the homeowner is told why, must confirm the loop will not be filled or
+      // run, and is offered a site visit (the refusal without the tick: tests/e2e/newcomer.test.ts).
+      const gate = page.getByTestId("safety-gate");
+      await gate.waitFor();
+      expect(await gate.getByText("must not be filled or run").count()).toBe(1);
+      expect(await gate.getByRole("button", { name: "Ask for a site visit instead" }).count()).toBe(
+        1,
+      );
+      expect(await page.getByLabel(/I have read why/).isChecked()).toBe(false);
+      await page.getByRole("button", { name: "Post the request" }).waitFor();
       await shot(page, "project-stop");
     });
     await page.context().close();

@@ -262,8 +262,19 @@ describe("quotes, payment, review, release and dispute in Chromium", () => {
         `fee ${feeMinor}`,
       ]);
       await mail.expectMail(reviewer.email, "Payment released for Hillside loop");
-      // TODO(rating): rating the reviewer after release comes with the `after` branch; once
-      // merged, rate here and assert the public profile shows it.
+    });
+
+    await step("rate the reviewer; the public profile shows it", async () => {
+      await hp.goto(`${baseUrl}/jobs/${job.id}`);
+      const form = hp.getByRole("form", { name: "Rate the reviewer" });
+      await form.getByLabel("5 stars").check();
+      await form.getByLabel(/Comment/).fill("Found the missing mixing valve before we filled.");
+      await form.getByRole("button", { name: "Send the rating" }).click();
+      await hp.getByTestId("job-rating").waitFor();
+      await hp.goto(`${baseUrl}/reviewers/${reviewer.id}`);
+      expect(await hp.getByTestId("profile-rating").innerText()).toMatch(
+        /5 out of 5\s*from 1 rating/,
+      );
     });
     await hp.context().close();
   }, 180_000);

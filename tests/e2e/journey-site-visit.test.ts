@@ -98,9 +98,24 @@ describe("a site visit from payment to the delivered report in Chromium", () => 
       expect(await hp.getByTestId("required-changes").textContent()).toContain(
         "Fit a thermostatic mixing valve",
       );
-      // TODO(first fill): the first-fill record (pressures and the date the loop was filled)
-      // comes with another branch; once merged, fill it in here and assert it on the job page.
       await shot(hp, "site-visit-report");
+    });
+
+    await step("after the install: the first-fill record against the design", async () => {
+      await hp.goto(`${baseUrl}/jobs/${job.id}`);
+      await hp.getByRole("link", { name: "The first-fill record" }).click();
+      await hp.waitForURL(`**/projects/${job.project.id}/first-fill`);
+      const ff = hp.getByRole("form", { name: "First-fill readings" });
+      await ff.getByLabel("Cold fill pressure").fill("1.9");
+      await ff.getByLabel(/Vessel pre-charge/).fill("1.2");
+      await ff.getByLabel(/Glycol concentration/).fill("40");
+      await ff.getByRole("button", { name: "Save the readings" }).click();
+      await hp.getByRole("table", { name: "Readings against the design" }).waitFor();
+      expect(await hp.locator('[data-compare="cold-fill"]').getAttribute("data-status")).toBe(
+        "matches",
+      );
+      expect(await knex("first_fill_records").where({ job_id: job.id })).toHaveLength(1);
+      await shot(hp, "site-visit-first-fill");
     });
     await rp.context().close();
     await hp.context().close();
