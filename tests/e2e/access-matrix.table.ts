@@ -15,6 +15,7 @@ import type { Knex } from "knex";
 import type { Method } from "../support/app-surface";
 import { ACTORS, storeFile, type Actor, type World } from "../support/access-world";
 import { form } from "../support/actions-http";
+import { saveFirstFill } from "@/lib/data/first-fill";
 import {
   makeJob,
   makeProject,
@@ -186,6 +187,29 @@ export const PAGES: Record<string, PageRow> = {
   "/reviewer/credentials": page(REVIEWER_PAGE),
   "/reviewer/earnings": page(REVIEWER_PAGE),
   "/jobs/[id]": page(JOB_PARTIES, { id: "job" }),
+  // The workspace is the job's reviewer's; admins may read it; anyone else is refused.
+  "/jobs/[id]/review": page(
+    rule<PageOutcome>(403, { anonymous: "signin", jobReviewer: 200, admin: 200 }),
+    { id: "job" },
+  ),
+  "/jobs/[id]/report": page(JOB_PARTIES, { id: "job" }),
+  // Receipts are the paying homeowner's and the admins'.
+  "/jobs/[id]/receipts": page(
+    rule<PageOutcome>(404, { anonymous: "signin", owner: 200, admin: 200 }),
+    {
+      id: "job",
+    },
+  ),
+  // The world's job has no ledger entry with this id: nobody may see a receipt that is not theirs
+  // (the paying homeowner's own receipts: tests/integration/payments-receipts.test.ts).
+  "/jobs/[id]/receipts/[entryId]": page(rule<PageOutcome>(404, { anonymous: "signin" }), {
+    id: "job",
+    entryId: "job",
+  }),
+  "/projects/[id]/first-fill": page(
+    rule<PageOutcome>(404, { anonymous: "signin", owner: 200, jobReviewer: 200, admin: 200 }),
+    { id: "jobProject" },
+  ),
   "/admin/credentials": page(ADMIN_PAGE),
   "/admin/disputes": page(ADMIN_PAGE),
   "/admin/ledger": page(ADMIN_PAGE),
@@ -198,6 +222,29 @@ PAGES["/board"]!.expect.suspendedReviewer = { status: 200, shows: "not open to y
 
 export const ROUTES: Record<string, RouteRow> = {
   "/api/health": { GET: route(rule(200)) },
+  // Only there when the bench runs the app with BENCH=1.
+  "/api/bench/constant": { GET: route(rule(404)) },
+  // The packaged town list for the site-visit picker: public data.
+  "/api/towns": { GET: route(rule(200), {}, { suffix: "?q=Ba" }) },
+  "/api/jobs/[id]/review": {
+    GET: route(rule(403, { anonymous: 401, jobReviewer: 200, admin: 200 }), { id: "job" }),
+  },
+  "/api/jobs/[id]/answers/[itemKey]": {
+    PUT: "not-matrixed",
+    note: "versioned autosave: 401/403/404/409/422 per actor in tests/integration/review.test.ts and tests/e2e/review.test.ts",
+  },
+  "/api/jobs/[id]/report-draft": {
+    PUT: "not-matrixed",
+    note: "versioned autosave: tests/integration/review.test.ts and tests/e2e/review.test.ts",
+  },
+  "/api/jobs/[id]/deliver": {
+    POST: "not-matrixed",
+    note: "delivery and its refusals: tests/integration/review.test.ts, tests/e2e/review.test.ts",
+  },
+  "/api/jobs/[id]/item-requests": {
+    POST: "not-matrixed",
+    note: "questions to the homeowner: tests/integration/review.test.ts (the round trip and who may ask)",
+  },
   "/api/auth/[...nextauth]": {
     // next-auth's own endpoints: the session read is public; signing in is tested in access.test.ts.
     GET: route(rule(200), { nextauth: "session" }),
@@ -518,6 +565,134 @@ export const ACTIONS: Record<string, ActionRow> = {
         expiresOn: new Date(Date.now() + 200 * 86_400_000).toISOString().slice(0, 10),
       }),
     ],
+  ),
+
+  // The review and what follows it
+  "components/review/actions.ts#startReviewAction": action(
+    "/jobs/[id]/review",
+    rule<ActionOutcome>("refused", { anonymous: "signin", jobReviewer: "ok" }),
+    async (ctx) => [prev, form({ jobId: String((await jobIn(ctx, "funded")).id) })],
+    { id: "job" },
+  ),
+  "components/review/actions.ts#addAddendumAction": action(
+    "/jobs/[id]/report",
+    rule<ActionOutcome>("refused", { anonymous: "signin", jobReviewer: "ok" }),
+    async (ctx) => [
+      prev,
+      form({
+        jobId: String((await jobIn(ctx, "delivered")).id),
+        bodyMd: "A dated matrix addendum.",
+      }),
+    ],
+    { id: "job" },
+  ),
+  // Answering needs a question the reviewer asked on this homeowner's job (the round trip:
+  // tests/integration/review.test.ts); here no one gets an answer onto a question that is not theirs.
+  "components/review/actions.ts#answerItemRequestAction": action(
+    "/projects/[id]",
+    rule<ActionOutcome>("refused", { anonymous: "signin" }),
+    (ctx) => [
+      prev,
+      form({
+        itemRequestId: "999999",
+        projectId: String(ctx.w.job.project.id),
+        answerMd: "A fact.",
+      }),
+    ],
+    { id: "jobProject" },
+  ),
+  "components/aftercare/actions.ts#rateReviewerAction": action(
+    "/jobs/[id]",
+    HOMEOWNER_OWNER_ONLY,
+    async (ctx) => [
+      prev,
+      form({ jobId: String((await jobIn(ctx, "released")).id), stars: "5", comment: "Matrix." }),
+    ],
+    { id: "job" },
+  ),
+  "components/aftercare/actions.ts#replyToRatingAction": action(
+    "/jobs/[id]",
+    rule<ActionOutcome>("refused", { anonymous: "signin", jobReviewer: "ok" }),
+    async (ctx) => {
+      const job = await jobIn(ctx, "released");
+      await ctx.knex("ratings").insert({
+        job_id: job.id,
+        rater_id: ctx.w.people.owner.id,
+        ratee_id: ctx.w.people.jobReviewer.id,
+        stars: 5,
+        comment: "",
+      });
+      return [prev, form({ jobId: String(job.id), replyMd: "Thank you for the rating." })];
+    },
+    { id: "job" },
+  ),
+  "components/aftercare/actions.ts#tagPhotoAction": action(
+    "/projects/[id]",
+    HOMEOWNER_OWNER_ONLY,
+    (ctx) => [
+      prev,
+      form({
+        projectId: String(ctx.w.job.project.id),
+        attachmentId: String(ctx.w.fileId),
+        itemKeys: ["vessel-rating"],
+      }),
+    ],
+    { id: "jobProject" },
+  ),
+  "components/aftercare/actions.ts#saveFirstFillAction": action(
+    "/projects/[id]/first-fill",
+    HOMEOWNER_OWNER_ONLY,
+    async (ctx) => {
+      const job = await jobIn(ctx, "delivered");
+      return [
+        prev,
+        form({
+          jobId: String(job.id),
+          projectId: String(job.project.id),
+          coldFillBar: "1.9",
+          prechargeBar: "1.2",
+          glycolPercentMass: "40",
+        }),
+      ];
+    },
+    { id: "jobProject" },
+  ),
+  "components/aftercare/actions.ts#countersignAction": action(
+    "/projects/[id]/first-fill",
+    rule<ActionOutcome>("refused", { anonymous: "signin", jobReviewer: "ok" }),
+    async (ctx) => {
+      const job = await jobIn(ctx, "delivered");
+      await saveFirstFill(ctx.knex, ctx.w.people.owner, job.id, {
+        coldFillBar: "1.9",
+        prechargeBar: "1.2",
+        glycolPercentMass: "40",
+      });
+      return [
+        prev,
+        form({ jobId: String(job.id), projectId: String(job.project.id), comment: "Seen." }),
+      ];
+    },
+    { id: "jobProject" },
+  ),
+  // Site visits: the world's job is a remote check, so nobody may propose, confirm or ask for
+  // another visit on it (who may do each on a site visit: tests/integration/site-visit.test.ts).
+  "components/jobs/visit-actions.ts#proposeVisitAction": action(
+    "/jobs/[id]",
+    rule<ActionOutcome>("refused", { anonymous: "signin" }),
+    (ctx) => [prev, form({ jobId: String(ctx.w.job.id), date: "2030-05-02", time: "10:00" })],
+    { id: "job" },
+  ),
+  "components/jobs/visit-actions.ts#confirmVisitAction": action(
+    "/jobs/[id]",
+    rule<ActionOutcome>("refused", { anonymous: "signin" }),
+    (ctx) => [prev, form({ jobId: String(ctx.w.job.id), sequence: "0" })],
+    { id: "job" },
+  ),
+  "components/jobs/visit-actions.ts#askAnotherVisitAction": action(
+    "/jobs/[id]",
+    rule<ActionOutcome>("refused", { anonymous: "signin" }),
+    (ctx) => [prev, form({ jobId: String(ctx.w.job.id), note: "Another day, please." })],
+    { id: "job" },
   ),
 
   // Admin
