@@ -1,9 +1,22 @@
 /**
  * Every e-mail Loopwright sends, each written once as content (subject, heading, paragraphs,
  * an action link, whether the safety line belongs) and rendered to both a plain-text and an
- * HTML part from that one definition. The HTML is rendered from React components.
+ * HTML part from that one definition. The HTML is rendered with react-email's components and
+ * renderer (@react-email/components, @react-email/render); the plain text is written here.
  */
-import { renderToStaticMarkup } from "react-dom/server";
+import {
+  Body,
+  Button,
+  Container,
+  Head,
+  Heading,
+  Html,
+  Link,
+  Preview,
+  Section,
+  Text,
+} from "@react-email/components";
+import { render } from "@react-email/render";
 import type { TemplateName, TemplatePayloads } from "./kinds";
 
 export type { TemplateName, TemplatePayloads } from "./kinds";
@@ -246,10 +259,17 @@ const CONTENT: { [K in TemplateName]: (p: TemplatePayloads[K]) => Content } = {
 
 const COLORS = { copper: "#9d4f25", slate: "#0f172a", muted: "#475569", sun: "#f8c537" };
 
+/**
+ * The one layout every e-mail shares, built from react-email's components, which render to the
+ * table markup mail clients agree on (Outlook included), in our own look: a white card with a
+ * copper rule under the name, one action button, and the safety line where it belongs.
+ */
 function EmailLayout({ content }: { content: Content }) {
   return (
-    <html lang="en">
-      <body
+    <Html lang="en">
+      <Head />
+      <Preview>{content.paragraphs[0] ?? content.heading}</Preview>
+      <Body
         style={{
           margin: 0,
           background: "#f8fafc",
@@ -257,82 +277,75 @@ function EmailLayout({ content }: { content: Content }) {
           color: COLORS.slate,
         }}
       >
-        <table role="presentation" width="100%" cellPadding={0} cellSpacing={0}>
-          <tbody>
-            <tr>
-              <td align="center" style={{ padding: "24px 12px" }}>
-                <table
-                  role="presentation"
-                  width="560"
-                  cellPadding={0}
-                  cellSpacing={0}
-                  style={{ background: "#ffffff", borderRadius: 12, border: "1px solid #e2e8f0" }}
+        <Container
+          style={{
+            maxWidth: 560,
+            margin: "24px auto",
+            background: "#ffffff",
+            borderRadius: 12,
+            border: "1px solid #e2e8f0",
+          }}
+        >
+          <Section
+            style={{
+              padding: "20px 28px",
+              borderBottom: `4px solid ${COLORS.copper}`,
+              fontWeight: 700,
+              fontSize: 20,
+            }}
+          >
+            Loopwright
+          </Section>
+          <Section style={{ padding: "24px 28px", fontSize: 16, lineHeight: 1.6 }}>
+            <Heading as="h1" style={{ fontSize: 22, margin: "0 0 12px" }}>
+              {content.heading}
+            </Heading>
+            {content.paragraphs.map((p) => (
+              <Text key={p} style={{ fontSize: 16, lineHeight: 1.6, margin: "0 0 12px" }}>
+                {p}
+              </Text>
+            ))}
+            {content.action ? (
+              <Section style={{ margin: "20px 0" }}>
+                <Button
+                  href={content.action.url}
+                  style={{
+                    background: COLORS.copper,
+                    color: "#ffffff",
+                    padding: "12px 20px",
+                    borderRadius: 8,
+                    textDecoration: "none",
+                    fontWeight: 700,
+                  }}
                 >
-                  <tbody>
-                    <tr>
-                      <td
-                        style={{
-                          padding: "20px 28px",
-                          borderBottom: `4px solid ${COLORS.copper}`,
-                          fontWeight: 700,
-                          fontSize: 20,
-                        }}
-                      >
-                        Loopwright
-                      </td>
-                    </tr>
-                    <tr>
-                      <td style={{ padding: "24px 28px", fontSize: 16, lineHeight: 1.6 }}>
-                        <h1 style={{ fontSize: 22, margin: "0 0 12px" }}>{content.heading}</h1>
-                        {content.paragraphs.map((p) => (
-                          <p key={p} style={{ margin: "0 0 12px" }}>
-                            {p}
-                          </p>
-                        ))}
-                        {content.action ? (
-                          <p style={{ margin: "20px 0" }}>
-                            <a
-                              href={content.action.url}
-                              style={{
-                                background: COLORS.copper,
-                                color: "#ffffff",
-                                padding: "12px 20px",
-                                borderRadius: 8,
-                                textDecoration: "none",
-                                fontWeight: 700,
-                              }}
-                            >
-                              {content.action.label}
-                            </a>
-                          </p>
-                        ) : null}
-                        {content.action ? (
-                          <p style={{ fontSize: 13, color: COLORS.muted }}>
-                            Or open this link: {content.action.url}
-                          </p>
-                        ) : null}
-                        {content.safety ? (
-                          <p
-                            style={{
-                              fontSize: 13,
-                              color: COLORS.muted,
-                              borderLeft: `4px solid ${COLORS.sun}`,
-                              paddingLeft: 10,
-                            }}
-                          >
-                            {SAFETY_LINE}
-                          </p>
-                        ) : null}
-                      </td>
-                    </tr>
-                  </tbody>
-                </table>
-              </td>
-            </tr>
-          </tbody>
-        </table>
-      </body>
-    </html>
+                  {content.action.label}
+                </Button>
+              </Section>
+            ) : null}
+            {content.action ? (
+              <Text style={{ fontSize: 13, color: COLORS.muted }}>
+                Or open this link:{" "}
+                <Link href={content.action.url} style={{ color: COLORS.copper }}>
+                  {content.action.url}
+                </Link>
+              </Text>
+            ) : null}
+            {content.safety ? (
+              <Text
+                style={{
+                  fontSize: 13,
+                  color: COLORS.muted,
+                  borderLeft: `4px solid ${COLORS.sun}`,
+                  paddingLeft: 10,
+                }}
+              >
+                {SAFETY_LINE}
+              </Text>
+            ) : null}
+          </Section>
+        </Container>
+      </Body>
+    </Html>
   );
 }
 
@@ -343,10 +356,10 @@ export interface RenderedEmail {
 }
 
 /** Render a template with its payload to subject, text and HTML. */
-export function renderEmail<K extends TemplateName>(
+export async function renderEmail<K extends TemplateName>(
   template: K,
   payload: TemplatePayloads[K],
-): RenderedEmail {
+): Promise<RenderedEmail> {
   const content = (CONTENT[template] as (p: TemplatePayloads[K]) => Content)(payload);
   const text = [
     content.heading,
@@ -356,7 +369,7 @@ export function renderEmail<K extends TemplateName>(
     ...(content.safety ? [SAFETY_LINE, ""] : []),
     "— Loopwright",
   ].join("\n");
-  const html = "<!doctype html>" + renderToStaticMarkup(<EmailLayout content={content} />);
+  const html = await render(<EmailLayout content={content} />);
   return { subject: content.subject, text, html };
 }
 

@@ -69,7 +69,7 @@ export async function sendBatch(
       if (!isTemplateName(row.template))
         throw Object.assign(new Error(`unknown template ${row.template}`), { responseCode: 554 });
       const payload = typeof row.payload === "string" ? JSON.parse(row.payload) : row.payload;
-      const email = renderEmail(row.template, payload as never);
+      const email = await renderEmail(row.template, payload as never);
       const files = (
         typeof row.attachments === "string" ? JSON.parse(row.attachments) : (row.attachments ?? [])
       ) as MailAttachment[];

@@ -135,7 +135,7 @@ describe("every link in every e-mail, tile and public page opens a real page", (
     let checked = 0;
     for (const row of rows) {
       const payload = typeof row.payload === "string" ? JSON.parse(row.payload) : row.payload;
-      const mail = renderEmail(row.template as TemplateName, payload);
+      const mail = await renderEmail(row.template as TemplateName, payload);
       const links = new Set([...linksIn(mail.text), ...linksIn(mail.html)]);
       expect(links.size, `${row.template} has a link`).toBeGreaterThan(0);
       for (const link of links) {

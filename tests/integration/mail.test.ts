@@ -45,8 +45,8 @@ describe("e-mail outbox, worker and SMTP fake", () => {
   const emailOf = async (id: number) =>
     (await knex("users").where({ id }).first("email")).email as string;
 
-  it("renders every template with a text and an HTML part from one definition", () => {
-    const r = renderEmail("report_delivered", {
+  it("renders every template with a text and an HTML part from one definition", async () => {
+    const r = await renderEmail("report_delivered", {
       name: "A",
       projectTitle: "P",
       outcome: "fix before filling",
@@ -58,6 +58,12 @@ describe("e-mail outbox, worker and SMTP fake", () => {
     expect(r.text).toContain("advisory");
     expect(r.html).toContain('href="http://x.test/r"');
     expect(r.html).toContain("Read the report");
+    // Built with react-email: its doctype, the presentation tables mail clients lay out alike,
+    // the inbox preview line, and nothing that runs.
+    expect(r.html).toMatch(/^<!DOCTYPE html PUBLIC/);
+    expect(r.html).toMatch(/<table[^>]*role="presentation"/);
+    expect(r.html).toContain("data-skip-in-text");
+    expect(r.html).not.toMatch(/<script/i);
   });
 
   it("sends each notification to the right person with the right link", async () => {

@@ -91,7 +91,7 @@ describe("receipts", () => {
       amount: "£123.45",
       url: `http://app.test/jobs/${job.id}/receipts/${receipts[0]!.ledgerId}`,
     });
-    const rendered = renderEmail("receipt", mails[0].payload);
+    const rendered = await renderEmail("receipt", mails[0].payload);
     expect(rendered.text).toContain("Payment: £123.45");
     expect(rendered.subject).toContain(receipts[0]!.number);
 
