@@ -66,7 +66,7 @@ export function JobAftercare({
             : "The homeowner's readings at the first fill, compared with the design; the reviewer can countersign them."}
         </p>
         <Link
-          className="mt-2 inline-block font-semibold text-copper-700 underline"
+          className="mt-2 inline-flex min-h-11 items-center font-semibold text-copper-700 underline"
           href={`/projects/${projectId}/first-fill`}
         >
           The first-fill record

@@ -3,7 +3,7 @@
 import { currencySymbol, SERVICE_LABELS } from "@/lib/labels";
 import { StepCaution } from "@/components/ui/caution";
 import { TownPicker } from "./town-picker";
-import { useActionState, useState } from "react";
+import { useActionState, useEffect, useState } from "react";
 import { useFocusFirstError } from "@/components/ui/use-focus-first-error";
 import { Button } from "@/components/ui/button";
 import { Field, inputClass } from "@/components/ui/field";
@@ -28,6 +28,15 @@ export function RequestForm({ projectId, existing, currency, stops = [] }: Reque
   const formRef = useFocusFirstError(state);
   const v = state.ok ? existing?.values : (state.values ?? existing?.values);
   const [kind, setKind] = useState(v?.kind ?? "remote_check");
+  // React resets a form after its action runs, which puts the radios back to their first
+  // default; put the chosen kind back, so a refused site-visit request is not resent as a remote
+  // check.
+  useEffect(() => {
+    const radio = formRef.current?.querySelector<HTMLInputElement>(
+      `input[name="kind"][value="${kind}"]`,
+    );
+    if (radio) radio.checked = true;
+  }, [state, kind, formRef]);
   const e = state.fieldErrors;
   if (state.ok && !existing)
     return (

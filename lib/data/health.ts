@@ -18,6 +18,8 @@ export async function getHealth(db: Db = getDb()): Promise<Health> {
     ]);
     return { status: "ok", database: "up" };
   } catch (err) {
+    // The page gate (proxy.ts) stops trusting its cached "up" at once.
+    noteDatabaseDown();
     const message = err instanceof Error ? err.message : "unknown error";
     return { status: "degraded", database: "down", error: message.split("\n")[0] };
   } finally {

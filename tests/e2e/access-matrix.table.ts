@@ -192,7 +192,9 @@ export const PAGES: Record<string, PageRow> = {
     rule<PageOutcome>(403, { anonymous: "signin", jobReviewer: 200, admin: 200 }),
     { id: "job" },
   ),
-  "/jobs/[id]/report": page(JOB_PARTIES, { id: "job" }),
+  // The world's job is still in review: there is no report to read yet, for anyone (who reads a
+  // delivered one: tests/integration/review.test.ts and tests/e2e/review.test.ts).
+  "/jobs/[id]/report": page(rule<PageOutcome>(404, { anonymous: "signin" }), { id: "job" }),
   // Receipts are the paying homeowner's and the admins'.
   "/jobs/[id]/receipts": page(
     rule<PageOutcome>(404, { anonymous: "signin", owner: 200, admin: 200 }),
@@ -272,6 +274,8 @@ export const ROUTES: Record<string, RouteRow> = {
         owner: 200,
         otherHomeowner: 404,
         jobReviewer: 200,
+        // Admins read every thread (they settle disputes); they cannot post.
+        admin: 200,
       }),
       { id: "openRequest" },
       { suffix: (w) => `?reviewer=${w.people.jobReviewer.id}` },
@@ -311,8 +315,9 @@ export const ACTIONS: Record<string, ActionRow> = {
       password: "a long matrix passphrase 2026",
     },
   ]),
-  "components/auth/actions.ts#requestReset": action("/forgot-password", ANYONE, () => [
-    { email: "nobody-here@fixture.test" },
+  // One address per actor: resets are limited per target account (RESET_LIMITS).
+  "components/auth/actions.ts#requestReset": action("/forgot-password", ANYONE, ({ actor }) => [
+    { email: `nobody-${actor}@fixture.test` },
   ]),
   "components/auth/actions.ts#chooseNewPassword": action(
     "/reset-password",
@@ -510,14 +515,16 @@ export const ACTIONS: Record<string, ActionRow> = {
     ],
     { id: "job" },
   ),
+  // The settle form lives on the job page (the admin's dispute list links there).
   "components/jobs/actions.ts#settleAction": action(
-    "/admin/disputes",
+    "/jobs/[id]",
     rule<ActionOutcome>("refused", { anonymous: "signin" }),
     // Settling moves money on the fake, which the fixture's dispute never paid: refusals only.
     async (ctx) => [
       prev,
       form({ jobId: String((await jobIn(ctx, "disputed")).id), resolution: "release" }),
     ],
+    { id: "job" },
   ),
   "components/jobs/actions.ts#setUpPayoutAccount": action(
     "/reviewer/earnings",

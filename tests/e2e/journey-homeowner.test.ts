@@ -193,7 +193,7 @@ describe("homeowner journeys in Chromium", () => {
       await results.waitFor();
       expect(await results.locator("[data-level]").first().getAttribute("data-level")).toBe("stop");
       expect(await results.innerText()).toContain(
-        "Stop: do not fill or commission until these are resolved",
+        "Stop: unsafe as described; the loop must not be filled or run",
       );
       expect(await results.locator('[data-finding] [data-level="stop"]').count()).toBeGreaterThan(
         0,

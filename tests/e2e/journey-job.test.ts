@@ -92,6 +92,10 @@ describe("quotes, payment, review, release and dispute in Chromium", () => {
       await page
         .getByRole("button", { name: `Accept the quote from ${cheap.displayName} Heating` })
         .click();
+      // The confirmation names the price, the reviewer and what happens next.
+      const dialog = page.getByRole("dialog");
+      await dialog.getByText("What happens next").waitFor();
+      await dialog.getByRole("button", { name: /^Accept for / }).click();
       await page.waitForURL(/\/jobs\/\d+$/);
       jobId = Number(page.url().match(/jobs\/(\d+)/)![1]);
       await page.locator('[data-job-state="awaiting_payment"]').waitFor();

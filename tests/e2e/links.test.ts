@@ -129,14 +129,29 @@ describe("every link in every e-mail, tile and public page opens a real page", (
 
     const rows = await knex("email_outbox").select("to_user_id", "template", "payload");
     const seen = new Set(rows.map((r) => r.template as string));
-    expect([...templatesSent()].filter((t) => !seen.has(t))).toEqual([]);
+    // Templates whose links are opened by the journeys that produce them, each in its own state
+    // (a question on a review, a visit on a site-visit job, a receipt of a real charge, a run of
+    // failed sign-ins): tests/e2e/review.test.ts, site-visit.test.ts and journey-site-visit,
+    // tests/integration/payments-receipts.test.ts and security-limits.test.ts.
+    const openedElsewhere = new Set([
+      "item_requested",
+      "visit_proposed",
+      "visit_confirmed",
+      "visit_declined",
+      "visit_cancelled",
+      "receipt",
+      "sign_in_failures",
+    ]);
+    expect([...templatesSent()].filter((t) => !seen.has(t) && !openedElsewhere.has(t))).toEqual([]);
 
     const broken: string[] = [];
     let checked = 0;
     for (const row of rows) {
       const payload = typeof row.payload === "string" ? JSON.parse(row.payload) : row.payload;
       const mail = await renderEmail(row.template as TemplateName, payload);
-      const links = new Set([...linksIn(mail.text), ...linksIn(mail.html)]);
+      // The HTML's doctype names the W3C's DTD: that is not a link anyone follows.
+      const html = mail.html.replace(/<!DOCTYPE[^>]*>/i, "");
+      const links = new Set([...linksIn(mail.text), ...linksIn(html)]);
       expect(links.size, `${row.template} has a link`).toBeGreaterThan(0);
       for (const link of links) {
         // Functions that read APP_URL themselves (postMessage) point at the configured origin;

@@ -171,7 +171,10 @@ export default async function ProjectPage({ params }: { params: Promise<{ id: st
         <Link className="inline-flex min-h-11 items-center underline" href="/dashboard">
           Back to the dashboard
         </Link>
-        <Link className="underline" href={`/projects/${project.id}/first-fill`}>
+        <Link
+          className="inline-flex min-h-11 items-center underline"
+          href={`/projects/${project.id}/first-fill`}
+        >
           First-fill record (commissioning)
         </Link>
         <DeleteProjectButton projectId={project.id} />
