@@ -29,6 +29,7 @@ import { fromSqlDateTime, sqlDateTime } from "@/lib/time";
 import type { Actor } from "./actor";
 import { audit } from "./audit";
 import type { Db } from "./db";
+import { jobWithPeople } from "./job-query";
 import { conflict, HttpError, notFound, parseInput, unprocessable } from "./errors";
 import {
   notifyDisputeOpened,
@@ -641,14 +642,8 @@ export async function getJob(
   jobId: number,
   now = new Date(),
 ): Promise<JobView> {
-  const r = await db("jobs as j")
-    .join("requests as q", "q.id", "j.request_id")
-    .join("projects as p", "p.id", "q.project_id")
-    .join("users as h", "h.id", "j.homeowner_id")
-    .join("users as v", "v.id", "j.reviewer_id")
-    .leftJoin("reviewer_profiles as rp", "rp.user_id", "j.reviewer_id")
+  const r = await jobWithPeople(db, jobId)
     .leftJoin("disputes as d", "d.job_id", "j.id")
-    .where("j.id", jobId)
     .first(
       "j.*",
       "q.kind",

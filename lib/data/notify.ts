@@ -9,6 +9,7 @@ import { credentialName } from "@/lib/credentials";
 import { visitInvitation } from "@/lib/mail/calendar";
 import { formatWhen, fromSqlDateTime, sqlDateTime } from "@/lib/time";
 import type { Db } from "./db";
+import { jobWithPeople } from "./job-query";
 import { enqueueEmail } from "./outbox";
 import { itemTitle } from "@/lib/checklist/item-titles";
 import type { TemplatePayloads } from "@/lib/mail/kinds";
@@ -58,28 +59,21 @@ async function quoteContext(trx: Trx, quoteId: number) {
 }
 
 async function jobContext(trx: Trx, jobId: number) {
-  const j = await trx("jobs as j")
-    .join("requests as r", "r.id", "j.request_id")
-    .join("projects as p", "p.id", "r.project_id")
-    .join("users as h", "h.id", "j.homeowner_id")
-    .join("users as v", "v.id", "j.reviewer_id")
-    .leftJoin("reviewer_profiles as rp", "rp.user_id", "j.reviewer_id")
-    .where("j.id", jobId)
-    .first(
-      "j.id",
-      "j.amount_minor",
-      "j.fee_minor",
-      "j.currency",
-      "j.release_due_at",
-      "p.title",
-      "h.id as homeowner_id",
-      "h.email as homeowner_email",
-      "h.display_name as homeowner_name",
-      "v.id as reviewer_id",
-      "v.email as reviewer_email",
-      "v.display_name as reviewer_name",
-      "rp.trading_name",
-    );
+  const j = await jobWithPeople(trx, jobId).first(
+    "j.id",
+    "j.amount_minor",
+    "j.fee_minor",
+    "j.currency",
+    "j.release_due_at",
+    "p.title",
+    "h.id as homeowner_id",
+    "h.email as homeowner_email",
+    "h.display_name as homeowner_name",
+    "v.id as reviewer_id",
+    "v.email as reviewer_email",
+    "v.display_name as reviewer_name",
+    "rp.trading_name",
+  );
   if (!j) throw new Error(`job ${jobId} not found`);
   return j;
 }

@@ -5,6 +5,7 @@
  */
 import type { Actor } from "./actor";
 import type { Db } from "./db";
+import { jobWithPeople } from "./job-query";
 import { notFound } from "./errors";
 import { receiptNumber } from "./notify";
 import type { Receipt } from "@/lib/types/receipts";
@@ -13,23 +14,16 @@ export type { Receipt } from "@/lib/types/receipts";
 
 /** The job's receipts, oldest first; 404 for anyone but its homeowner and admins. */
 export async function listReceipts(db: Db, actor: Actor, jobId: number): Promise<Receipt[]> {
-  const job = await db("jobs as j")
-    .join("requests as r", "r.id", "j.request_id")
-    .join("projects as p", "p.id", "r.project_id")
-    .join("users as h", "h.id", "j.homeowner_id")
-    .join("users as v", "v.id", "j.reviewer_id")
-    .leftJoin("reviewer_profiles as rp", "rp.user_id", "j.reviewer_id")
-    .where("j.id", jobId)
-    .first(
-      "j.id",
-      "j.homeowner_id",
-      "r.kind",
-      "p.title",
-      "h.display_name as payer_name",
-      "h.email as payer_email",
-      "v.display_name as reviewer_name",
-      "rp.trading_name",
-    );
+  const job = await jobWithPeople(db, jobId).first(
+    "j.id",
+    "j.homeowner_id",
+    "q.kind",
+    "p.title",
+    "h.display_name as payer_name",
+    "h.email as payer_email",
+    "v.display_name as reviewer_name",
+    "rp.trading_name",
+  );
   const allowed =
     job &&
     (actor.role === "admin" ||

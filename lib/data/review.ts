@@ -46,6 +46,7 @@ import { systemSchema } from "@/lib/validation/system";
 import type { Actor } from "./actor";
 import { audit } from "./audit";
 import type { Db } from "./db";
+import { jobWithPeople } from "./job-query";
 import { conflict, forbidden, HttpError, notFound, parseInput, unprocessable } from "./errors";
 import { startReview, transitionJob } from "./jobs";
 import { parseJson } from "./json";
@@ -150,30 +151,23 @@ function checklistOf(
 }
 
 async function jobContext(db: Db, jobId: number): Promise<JobContext | null> {
-  const r = await db("jobs as j")
-    .join("requests as q", "q.id", "j.request_id")
-    .join("projects as p", "p.id", "q.project_id")
-    .join("users as h", "h.id", "j.homeowner_id")
-    .join("users as v", "v.id", "j.reviewer_id")
-    .leftJoin("reviewer_profiles as rp", "rp.user_id", "j.reviewer_id")
-    .where("j.id", jobId)
-    .first(
-      "j.id",
-      "j.state",
-      "j.request_id",
-      "j.homeowner_id",
-      "j.reviewer_id",
-      "q.kind",
-      "q.questions",
-      "q.system_snapshot",
-      "q.loop_check_snapshot",
-      "p.id as project_id",
-      "p.title",
-      "p.system",
-      "h.display_name as homeowner_name",
-      "v.display_name as reviewer_name",
-      "rp.trading_name",
-    );
+  const r = await jobWithPeople(db, jobId).first(
+    "j.id",
+    "j.state",
+    "j.request_id",
+    "j.homeowner_id",
+    "j.reviewer_id",
+    "q.kind",
+    "q.questions",
+    "q.system_snapshot",
+    "q.loop_check_snapshot",
+    "p.id as project_id",
+    "p.title",
+    "p.system",
+    "h.display_name as homeowner_name",
+    "v.display_name as reviewer_name",
+    "rp.trading_name",
+  );
   if (!r) return null;
   const snap = r.loop_check_snapshot ? parseJson<LoopCheckSnapshot>(r.loop_check_snapshot) : null;
   const list = checklistOf(snap, parseJson(r.system_snapshot ?? r.system));

@@ -14,11 +14,11 @@ import { ActionForm } from "@/components/ui/action-form";
 import { Cautions } from "@/components/ui/caution";
 import { JobStateBadge } from "@/components/jobs/job-state-badge";
 import { SiteVisitCard } from "@/components/jobs/site-visit";
+import { DisputeCard } from "@/components/jobs/dispute-card";
 import { ReceiptsLink, visitTimelineWords } from "@/components/jobs/job-extras";
 import {
   cancelForRefundAction,
   cancelJobAction,
-  disputeAction,
   payForJob,
   releaseAction,
   settleAction,
@@ -28,8 +28,6 @@ import { FIRST_FILL_STATES } from "@/lib/data/first-fill";
 import { JobAftercare } from "@/components/aftercare/job-aftercare";
 
 export const metadata: Metadata = { title: "Job" };
-
-const SERVICE = SERVICE_LABELS;
 
 const orNotFound = (err: unknown): never => {
   if (err instanceof HttpError && (err.status === 404 || err.status === 403)) notFound();
@@ -80,7 +78,7 @@ export default async function JobPage({
     <div className="space-y-6">
       <div className="flex flex-wrap items-center gap-3">
         <h1 className="text-3xl font-bold">
-          {SERVICE[job.kind]}: {job.projectTitle}
+          {SERVICE_LABELS[job.kind]}: {job.projectTitle}
         </h1>
         <JobStateBadge state={job.state} viewer={viewer} />
       </div>
@@ -257,35 +255,7 @@ function NextStep({ job, user }: { job: JobView; user: CurrentUser }) {
       </Card>,
     );
   if (can("openDispute"))
-    items.push(
-      <Card key="dispute">
-        <h2 className="text-xl font-bold">Something wrong with the report?</h2>
-        <p className="mt-1">
-          Open a dispute before {day(job.releaseDueAt)}: the payment stays held and the Loopwright
-          team settles it.
-        </p>
-        <ActionForm
-          action={disputeAction}
-          fields={fields}
-          submitLabel={TRANSITION_LABELS.openDispute}
-          variant="secondary"
-          className="mt-3"
-        >
-          <label className="block font-semibold" htmlFor="dispute-reason">
-            What is wrong
-          </label>
-          <textarea
-            id="dispute-reason"
-            name="reason"
-            required
-            minLength={20}
-            maxLength={4000}
-            rows={4}
-            className="w-full rounded-lg border border-slate-300 p-3"
-          />
-        </ActionForm>
-      </Card>,
-    );
+    items.push(<DisputeCard key="dispute" jobId={job.id} openUntil={day(job.releaseDueAt)} />);
   if (user.role === "admin" && job.state === "disputed")
     items.push(
       <Card key="settle">

@@ -11,10 +11,12 @@ import { formatMoney } from "@/lib/money";
 import { pageUser } from "@/lib/server/auth/session";
 import { db } from "@/lib/server/db";
 import { Card } from "@/components/ui/card";
+import { SERVICE_LABELS } from "@/lib/labels";
 import { Cautions } from "@/components/ui/caution";
 import { Markdown } from "@/components/ui/markdown";
 import { ActionForm } from "@/components/ui/action-form";
-import { disputeAction, releaseAction } from "@/components/jobs/actions";
+import { releaseAction } from "@/components/jobs/actions";
+import { DisputeCard } from "@/components/jobs/dispute-card";
 import { addAddendumAction } from "@/components/review/actions";
 import { Evidence } from "@/components/review/evidence";
 import { PinnedImage } from "@/components/review/pinned-image";
@@ -23,8 +25,6 @@ import { VerdictBadge } from "@/components/review/verdict-badge";
 import type { ReportItem } from "@/lib/types/review";
 
 export const metadata: Metadata = { title: "Report" };
-
-const SERVICE = { remote_check: "Remote design check", site_visit: "Site visit" } as const;
 
 const day = (s: string | null) =>
   s
@@ -78,7 +78,7 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
           </Link>
         </p>
         <h1 className="text-3xl font-bold">
-          {SERVICE[report.kind]} report: {report.projectTitle}
+          {SERVICE_LABELS[report.kind]} report: {report.projectTitle}
         </h1>
         <p className="text-slate-700">
           By {report.reviewerName} for {report.homeownerName} · delivered {day(report.deliveredAt)}{" "}
@@ -270,33 +270,7 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
           </Card>
         ) : null}
         {job.actions.includes("openDispute") ? (
-          <Card>
-            <h2 className="text-xl font-bold">Something wrong with the report?</h2>
-            <p className="mt-1">
-              Open a dispute before {day(job.releaseDueAt)}: the payment stays held and the
-              Loopwright team settles it.
-            </p>
-            <ActionForm
-              action={disputeAction}
-              fields={fields}
-              submitLabel={TRANSITION_LABELS.openDispute}
-              variant="secondary"
-              className="mt-3"
-            >
-              <label className="block font-semibold" htmlFor="dispute-reason">
-                What is wrong
-              </label>
-              <textarea
-                id="dispute-reason"
-                name="reason"
-                required
-                minLength={20}
-                maxLength={4000}
-                rows={4}
-                className="w-full rounded-lg border border-slate-300 p-3"
-              />
-            </ActionForm>
-          </Card>
+          <DisputeCard jobId={jobId} openUntil={day(job.releaseDueAt)} />
         ) : null}
         {report.viewer === "reviewer" ? (
           <Card>
