@@ -1,5 +1,6 @@
 #!/usr/bin/env bash
-# The two commands. `npm start` → start, `npm test` → test, `npm run dev` → dev, `npm run stop` → stop.
+# The two commands. `npm start` → start, `npm test` → test, `npm run dev` → dev, `npm run bench` → bench,
+# `npm run stop` → stop.
 # Sets up everything a fresh clone needs: npm packages, MariaDB (Debian's package, private
 # instance on 127.0.0.1), the schema, the demo data, the local fakes, then the app or the tests.
 set -euo pipefail
@@ -121,9 +122,17 @@ case "${1:-}" in
       tests/e2e/journey-homeowner.test.ts tests/e2e/journey-job.test.ts tests/e2e/phone.test.ts
     du -ch docs/screenshots/*.png | tail -1
     ;;
+  bench)
+    # `npm run bench`: the performance bench (tests/bench/run.ts) from a fresh clone; it builds
+    # the app, seeds its own database and starts its own fakes. Arguments pass through.
+    prepare
+    ensure_chromium
+    shift
+    exec npx tsx tests/bench/run.ts "$@"
+    ;;
   stop)
     bash db/server.sh stop
     ;;
   *)
-    echo "usage: db/stack.sh start|dev|test|screenshots|stop" >&2; exit 2 ;;
+    echo "usage: db/stack.sh start|dev|test|bench|screenshots|stop" >&2; exit 2 ;;
 esac

@@ -10,7 +10,7 @@
  *   6. scaling: the board at 1,000 / 10,000 / 100,000 open requests, page 1 against page 200
  *
  * Figures go to .bench/results.json and .bench/results.md (git-ignored).
- * Options: --skip-build (reuse .next), --quick (short runs), --js (first-load JS only, on a seeded
+ * Options: --skip-build (reuse .next), --quick (short runs), --js (first-load JS only, seeding first if empty; on a seeded
  * database; BENCH_JS_DETAIL=1 lists the chunks), BENCH_DB, BENCH_PORT, BENCH_SECONDS.
  */
 import { spawn, spawnSync, type ChildProcess } from "node:child_process";
@@ -27,19 +27,29 @@ import { enqueueEmail } from "@/lib/data/outbox";
 import { TASKS } from "@/lib/worker/schedule";
 import { boardQuerySchema } from "@/lib/validation/board";
 import { startMailFake } from "../../mocks/mail/server";
+import { startPaymentsFake } from "../../mocks/payments/server";
 import { signInHttp } from "../support/session";
 import { BASE, COUNTS, HOMEOWNER_BASE, seedBenchData } from "./dataset";
 
 const args = new Set(process.argv.slice(2));
 const QUICK = args.has("--quick");
-/** --js: only the first-load JavaScript (on an already seeded bench database). */
+/** --js: only the first-load JavaScript (seeding the bench database first if it is empty). */
 const JS_ONLY = args.has("--js");
 const SECONDS = Number(process.env.BENCH_SECONDS ?? (QUICK ? 3 : 10));
 const SHORT = QUICK ? 2 : 4; // the scaling runs (one connection)
 const CONNECTIONS = 32;
 const DB_NAME = process.env.BENCH_DB ?? "loopwright_test_bench_data";
 const PORT = Number(process.env.BENCH_PORT ?? 3380);
-const PORTS = { a: PORT, b: PORT + 1, bare: PORT + 2, smtp: PORT - 430, mail: PORT - 429 };
+const PORTS = {
+  a: PORT,
+  b: PORT + 1,
+  bare: PORT + 2,
+  smtp: PORT - 430,
+  mail: PORT - 429,
+  payments: PORT - 428,
+};
+// The demo part of the dataset pays for its jobs on the payment fake, as `npm start` does.
+process.env.STRIPE_API_PORT = String(PORTS.payments);
 const OUT = ".bench";
 const NODE = process.execPath;
 
@@ -61,6 +71,7 @@ const appEnv = (port: number): NodeJS.ProcessEnv => ({
   APP_URL: `http://127.0.0.1:${port}`,
   SMTP_PORT: String(PORTS.smtp),
   MAIL_FAKE_URL: `http://127.0.0.1:${PORTS.mail}`,
+  STRIPE_API_PORT: String(PORTS.payments),
   NEXT_TELEMETRY_DISABLED: "1",
   BENCH: "1",
 });
@@ -361,7 +372,15 @@ async function main() {
     `CREATE DATABASE IF NOT EXISTS \`${DB_NAME}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`,
   );
   await root.destroy();
-  if (!JS_ONLY) {
+  // In memory, no webhooks: the bench makes no payments of its own.
+  const payments = await startPaymentsFake({ port: PORTS.payments, webhookUrl: null });
+  // --js on an empty database seeds it first (27 s on a quiet 2-core machine).
+  const probe = knexOn(DB_NAME, 1);
+  const seeded =
+    (await probe.schema.hasTable("users")) &&
+    Number((await probe("users").count({ n: "*" }))[0]!.n) > 0;
+  await probe.destroy();
+  if (!JS_ONLY || !seeded) {
     const seedKnex = knexOn(DB_NAME, 1);
     log(`seeding the bench dataset into ${DB_NAME}`);
     const dataset = await seedBenchData(seedKnex);
@@ -405,6 +424,8 @@ async function main() {
     });
     await stopChild(appA);
     await mail.close();
+    await payments.close();
+    await payments.close();
     await knex.destroy();
     return;
   }
