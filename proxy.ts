@@ -1,7 +1,7 @@
 import { NextResponse, type NextFetchEvent, type NextRequest } from "next/server";
 import { withAuth, type NextRequestWithAuth } from "next-auth/middleware";
 import { env } from "@/lib/env";
-import { contentSecurityPolicy, makeNonce } from "@/lib/security-headers";
+import { contentSecurityPolicy, makeNonce, STATIC_PAGES } from "@/lib/security-headers";
 import { databaseReachable } from "@/lib/data/health";
 import { UNAVAILABLE_HTML, UNAVAILABLE_CSP } from "@/lib/unavailable";
 
@@ -69,7 +69,7 @@ function refuseAction(req: NextRequest): NextResponse | null {
 
 /**
  * Every page: a 503 while the database cannot be reached (lib/data/health.ts), the cheap redirect to sign-in for app pages, then a Content-Security-Policy with
- * a fresh nonce. The nonce goes on the request too, where Next.js finds it and puts it on the
+ * a fresh nonce (none for the prerendered STATIC_PAGES). The nonce goes on the request too, where Next.js finds it and puts it on the
  * scripts it renders; the response carries the policy the browser enforces.
  */
 export default async function proxy(req: NextRequest, event: NextFetchEvent) {
@@ -93,7 +93,9 @@ export default async function proxy(req: NextRequest, event: NextFetchEvent) {
     if (redirect) return redirect;
   }
   const e = env();
-  const nonce = makeNonce();
+  // A prerendered page is the same for everyone: no nonce (it could not carry one), and the
+  // cache may keep it. Every other page gets a fresh nonce.
+  const nonce = STATIC_PAGES.has(req.nextUrl.pathname) ? null : makeNonce();
   const csp = contentSecurityPolicy({
     nonce,
     appUrl: e.APP_URL,
@@ -101,6 +103,11 @@ export default async function proxy(req: NextRequest, event: NextFetchEvent) {
     connectUrls: [e.UPLOADTHING_INGEST_URL],
     dev: process.env.NODE_ENV === "development",
   });
+  if (nonce === null) {
+    const res = NextResponse.next();
+    res.headers.set("content-security-policy", csp);
+    return res;
+  }
   const headers = new Headers(req.headers);
   headers.set("x-nonce", nonce);
   headers.set("content-security-policy", csp);

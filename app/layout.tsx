@@ -1,6 +1,5 @@
 import type { Metadata, Viewport } from "next";
 import localFont from "next/font/local";
-import { connection } from "next/server";
 import { env } from "@/lib/env";
 import "./globals.css";
 
@@ -36,10 +35,13 @@ export const metadata: Metadata = {
 
 export const viewport: Viewport = { width: "device-width", initialScale: 1 };
 
-export default async function RootLayout({ children }: { children: React.ReactNode }) {
-  // Every page is rendered per request, so Next.js can put this request's CSP nonce (set in
-  // proxy.ts) on its scripts; a prerendered page would carry none and never hydrate.
-  await connection();
+/**
+ * Pages are rendered per request (they read the session, the database or the address), so
+ * Next.js can put the request's CSP nonce (proxy.ts) on their scripts. The few that hold
+ * nothing per request are prerendered once, and proxy.ts gives them the policy without a nonce:
+ * see STATIC_PAGES in lib/security-headers.ts.
+ */
+export default function RootLayout({ children }: { children: React.ReactNode }) {
   return (
     <html lang="en-GB" className={inter.variable}>
       <body className="flex min-h-screen flex-col font-sans">{children}</body>

@@ -3,9 +3,21 @@
  * on every response are in next.config.mjs.
  */
 
+/**
+ * The pages built once at deploy and served as they are (prerendered: no request data, no
+ * database, no user's words in them). A prerendered page cannot carry a per-request nonce, so
+ * these get the policy without one (`staticPagePolicy`); every other page is rendered per
+ * request with a nonce. tests/e2e/landing.test.ts checks this list against the build's
+ * prerender manifest, so a page that turns static (or dynamic) without being listed fails it.
+ */
+export const STATIC_PAGES: ReadonlySet<string> = new Set(["/", "/loop-check", "/forgot-password"]);
+
 export interface CspOptions {
-  /** A fresh random value for this response (base64). */
-  nonce: string;
+  /**
+   * A fresh random value for this response (base64), or null for a prerendered page (see
+   * STATIC_PAGES).
+   */
+  nonce: string | null;
   /** The app's own URL (APP_URL). */
   appUrl: string;
   /** Origins the browser itself talks to: the upload ingest (the browser PUTs files there). */
@@ -33,13 +45,18 @@ export function contentSecurityPolicy(o: CspOptions): string {
   if (o.dev) connect.push("ws:", "wss:");
   const directives = [
     "default-src 'self'",
-    `script-src 'self' 'nonce-${o.nonce}' 'strict-dynamic'${o.dev ? " 'unsafe-eval'" : ""}`,
+    // A prerendered page's inline scripts are Next.js's own, fixed at build time: without a
+    // nonce they need 'unsafe-inline'. Such a page holds nothing a visitor or another user wrote
+    // (STATIC_PAGES), so there is nothing for an injected script to ride in on.
+    o.nonce === null
+      ? "script-src 'self' 'unsafe-inline'"
+      : `script-src 'self' 'nonce-${o.nonce}' 'strict-dynamic'${o.dev ? " 'unsafe-eval'" : ""}`,
     // <style> elements need the nonce. Style *attributes* cannot carry one, and React renders
     // `style={{…}}` props as attributes in server HTML (Recharts sizes and positions its SVG
     // that way; the upload button and Next.js' own error overlay do the same), so inline
     // attributes are allowed. A style attribute cannot run script.
-    `style-src 'self' 'nonce-${o.nonce}'`,
-    `style-src-elem 'self' 'nonce-${o.nonce}'`,
+    `style-src 'self' ${o.nonce === null ? "'unsafe-inline'" : `'nonce-${o.nonce}'`}`,
+    `style-src-elem 'self' ${o.nonce === null ? "'unsafe-inline'" : `'nonce-${o.nonce}'`}`,
     "style-src-attr 'unsafe-inline'",
     // blob: for the preview of a photo being chosen; data: for small inline icons.
     "img-src 'self' blob: data:",

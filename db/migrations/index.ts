@@ -11,6 +11,7 @@ import * as sessionVersion from "./20261202_0021_session_version";
 import * as review from "./20261202_0030_review";
 import * as mailAttachments from "./20261202_0050_mail_attachments";
 import * as boardIndexes from "./20261202_0080_board_indexes";
+import * as boardDistanceIndex from "./20261202_0081_board_distance_index";
 
 /**
  * Every migration, in order. Listed here rather than read from the folder so the same source
@@ -30,6 +31,7 @@ const MIGRATIONS: Record<string, Knex.Migration> = {
   "20261202_0030_review.ts": review,
   "20261202_0050_mail_attachments.ts": mailAttachments,
   "20261202_0080_board_indexes.ts": boardIndexes,
+  "20261202_0081_board_distance_index.ts": boardDistanceIndex,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -32,7 +32,7 @@ interface BoardRow {
  *
  * Two round trips per page: the reviewer's verified state and centre point in one query
  * (`getBoardReviewer`), then the board rows with the project's loop-check level joined by primary
- * key. Served by the requests_board_* indexes (see the EXPLAIN test).
+ * key, read for the page's rows only. Served by the requests_board_* indexes (see the EXPLAIN test).
  */
 export async function listBoard(db: Db, actor: Actor, q: BoardQuery): Promise<BoardPage> {
   if (actor.role !== "reviewer") throw forbidden("The board is open to verified reviewers.");
@@ -107,7 +107,13 @@ const KM_PER_DEGREE_LAT = 111.19;
  * pages by a keyset cursor `<sort value>|<id>` (the row comparison written out as OR, which
  * MariaDB can use as an index range); no OFFSET. The distance filter adds the latitude band the
  * circle lies in (a site within k km is within k / 111.19 degrees of latitude), which changes no
- * result but lets requests_board_site narrow the rows before the distance is worked out.
+ * result but narrows the index range before the distance is worked out.
+ *
+ * A deferred join: the inner query picks the page's ids (and sort values) from the
+ * requests_board_* indexes alone, without reading the wide request rows (each holds the system
+ * and loop-check snapshots); the outer query reads only those `limit + 1` rows by primary key.
+ * The distance sort has to work the distance out for every site visit, so its index
+ * (requests_board_distance) carries every column a filter reads.
  */
 export function buildBoardQuery(
   db: Db,
@@ -116,7 +122,6 @@ export function buildBoardQuery(
   centre: Centre | null = null,
 ): Knex.QueryBuilder {
   const b = db("requests as r")
-    .leftJoin("projects as p", "p.id", "r.project_id")
     .where("r.status", "open")
     .andWhere("r.expires_at", ">", sqlDateTime());
   if (q.kind) b.where("r.kind", q.kind);
@@ -171,25 +176,38 @@ export function buildBoardQuery(
       { column: "r.id", order: "desc" },
     ]);
   } else {
-    b.orderByRaw(`? ${key.dir.toUpperCase()}`, [key.col]).orderBy("r.id", "desc");
+    // By the alias, so the distance is worked out once per row for the select and the sort.
+    b.orderByRaw(`sort_key ${key.dir.toUpperCase()}`).orderBy("r.id", "desc");
   }
-  return b
-    .limit(limit + 1)
+  const ids = b.limit(limit + 1).select(
+    "r.id",
+    db.raw("? AS sort_key", [typeof key.col === "string" ? db.ref(key.col) : key.col]),
+    // Sorted by distance, the sort key is the distance; otherwise it is worked out here.
+    centre && q.sort !== "distance"
+      ? db.raw("? AS distance_km", [distanceSql(db, centre)])
+      : db.raw("NULL AS distance_km"),
+  );
+  return db
+    .from(ids.as("page"))
+    .join("requests as rq", "rq.id", "page.id")
+    .leftJoin("projects as p", "p.id", "rq.project_id")
+    .orderBy([
+      { column: "page.sort_key", order: key.dir },
+      { column: "page.id", order: "desc" },
+    ])
     .select(
-      "r.id",
-      "r.kind",
-      "r.region",
-      "r.collector_type",
-      "r.budget_min_minor",
-      "r.budget_max_minor",
-      "r.currency",
-      "r.window_start",
-      "r.window_end",
-      "r.created_at",
-      "r.expires_at",
+      "rq.id",
+      "rq.kind",
+      "rq.region",
+      "rq.collector_type",
+      "rq.budget_min_minor",
+      "rq.budget_max_minor",
+      "rq.currency",
+      "rq.window_start",
+      "rq.window_end",
+      "rq.created_at",
+      "rq.expires_at",
       "p.worst_level",
-      centre
-        ? db.raw("? AS distance_km", [distanceSql(db, centre)])
-        : db.raw("NULL AS distance_km"),
+      q.sort === "distance" && centre ? "page.sort_key as distance_km" : "page.distance_km",
     );
 }

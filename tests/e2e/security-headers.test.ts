@@ -1,6 +1,9 @@
 import { afterAll, beforeAll, describe, expect, inject, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import type { Knex } from "knex";
+import { readFileSync } from "node:fs";
+import { join } from "node:path";
+import { STATIC_PAGES } from "@/lib/security-headers";
 import { seedDemo, DEMO_PASSWORD, DEMO_USERS } from "@/db/seeds/demo";
 import { launchBrowser } from "../support/browser";
 import { testKnex, truncateAll } from "../support/db";
@@ -60,16 +63,16 @@ describe("security headers and the CSP, served by the built app", () => {
     expectCommonHeaders(json, "/api/files/999999");
   });
 
-  it("gives every page a CSP with a fresh nonce that is on each of its scripts", async () => {
+  it("gives every page rendered per request a CSP with a fresh nonce that is on each of its scripts", async () => {
     const nonces: string[] = [];
     for (const [path, cookie] of [
-      ["/", ""],
       ["/sign-in", ""],
-      ["/loop-check", ""],
+      ["/sign-up", ""],
+      ["/no-such-page", ""],
       ["/dashboard", home],
     ] as const) {
       const res = await fetch(`${baseUrl}${path}`, { headers: cookie ? { cookie } : {} });
-      expect(res.status, path).toBe(200);
+      expect(res.status, path).toBe(path === "/no-such-page" ? 404 : 200);
       const csp = res.headers.get("content-security-policy");
       expect(csp, path).toBeTruthy();
       const d = directives(csp!);
@@ -85,6 +88,29 @@ describe("security headers and the CSP, served by the built app", () => {
       for (const tag of scripts) expect(tag, path).toContain(`nonce="${nonce}"`);
     }
     expect(new Set(nonces).size).toBe(nonces.length);
+  });
+
+  it("prerenders exactly the pages that get the policy without a nonce, and serves them as built", async () => {
+    // The build's own list of prerendered pages (Next.js writes it at `next build`).
+    const manifest = JSON.parse(
+      readFileSync(join(process.cwd(), ".next/prerender-manifest.json"), "utf8"),
+    ) as { routes: Record<string, unknown> };
+    const prerendered = Object.keys(manifest.routes).filter(
+      (r) => !r.startsWith("/_") && !/\.(png|svg|ico|webmanifest|txt|xml)$/.test(r),
+    );
+    expect(new Set(prerendered)).toEqual(STATIC_PAGES);
+    for (const path of STATIC_PAGES) {
+      const first = await fetch(`${baseUrl}${path}`);
+      expect(first.status, path).toBe(200);
+      const d = directives(first.headers.get("content-security-policy")!);
+      expect(d["script-src"], path).toEqual(["'self'", "'unsafe-inline'"]);
+      expect(d["frame-ancestors"]).toEqual(["'none'"]);
+      expect(d["object-src"]).toEqual(["'none'"]);
+      const html = await first.text();
+      // Built once: the same bytes for every visitor, and no nonce to go stale in a cache.
+      expect(html, path).not.toContain("nonce=");
+      expect(await (await fetch(`${baseUrl}${path}`)).text(), path).toBe(html);
+    }
   });
 
   it("refuses being framed, even by a same-site page", async () => {
@@ -135,6 +161,10 @@ describe("security headers and the CSP, served by the built app", () => {
 
     await page.goto(baseUrl, { waitUntil: "networkidle" });
     await page.getByRole("heading", { level: 1 }).waitFor();
+    // An address no page answers: the not-found page, rendered per request with the nonce.
+    const missing = await page.goto(`${baseUrl}/no-such-page`, { waitUntil: "networkidle" });
+    expect(missing?.status()).toBe(404);
+    await page.getByRole("heading", { name: "We could not find that page" }).waitFor();
 
     // The loop check runs in the browser: hydration and the charts (inline SVG styles).
     await page.goto(`${baseUrl}/loop-check`, { waitUntil: "networkidle" });

@@ -1,6 +1,6 @@
 import { describe, expect, it } from "vitest";
 import type { NextConfig } from "next";
-import { contentSecurityPolicy, makeNonce } from "@/lib/security-headers";
+import { contentSecurityPolicy, makeNonce, STATIC_PAGES } from "@/lib/security-headers";
 
 // next.config.mjs is plain JavaScript (the framework loads it before any TypeScript).
 const configPath: string = "../../next.config.mjs";
@@ -30,6 +30,19 @@ describe("content security policy of pages", () => {
     expect(d["object-src"]).toEqual(["'none'"]);
     expect(d["base-uri"]).toEqual(["'self'"]);
     expect(d["form-action"]).toEqual(["'self'"]);
+  });
+
+  it("gives a prerendered page (no nonce) inline scripts from the build, and nothing else loosened", () => {
+    const d = directives(contentSecurityPolicy({ ...base, nonce: null }));
+    expect(d["script-src"]).toEqual(["'self'", "'unsafe-inline'"]);
+    expect(d["style-src-elem"]).toEqual(["'self'", "'unsafe-inline'"]);
+    expect(d["default-src"]).toEqual(["'self'"]);
+    expect(d["object-src"]).toEqual(["'none'"]);
+    expect(d["frame-ancestors"]).toEqual(["'none'"]);
+    expect(d["form-action"]).toEqual(["'self'"]);
+    expect(Object.values(d).flat().join(" ")).not.toMatch(/nonce-|unsafe-eval/);
+    // Only pages that hold nothing per request: never a signed-in page or a profile.
+    expect([...STATIC_PAGES].sort()).toEqual(["/", "/forgot-password", "/loop-check"]);
   });
 
   it("forbids framing by anyone", () => {
