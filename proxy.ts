@@ -1,6 +1,7 @@
 import { NextResponse, type NextFetchEvent, type NextRequest } from "next/server";
 import { withAuth, type NextRequestWithAuth } from "next-auth/middleware";
 import { env } from "@/lib/env";
+import { decodeSessionToken } from "@/lib/server/auth/jwt";
 import { contentSecurityPolicy, makeNonce, STATIC_PAGES } from "@/lib/security-headers";
 import { databaseReachable } from "@/lib/data/health";
 import { UNAVAILABLE_HTML, UNAVAILABLE_CSP } from "@/lib/unavailable";
@@ -22,7 +23,11 @@ const SIGNED_IN_PREFIXES = [
 const needsSignIn = (path: string) =>
   SIGNED_IN_PREFIXES.some((p) => path === p || path.startsWith(`${p}/`));
 
-const signInRedirect = withAuth({ pages: { signIn: "/sign-in" }, secret: env().NEXTAUTH_SECRET });
+const signInRedirect = withAuth({
+  pages: { signIn: "/sign-in" },
+  secret: env().NEXTAUTH_SECRET,
+  jwt: { decode: decodeSessionToken },
+});
 
 /** Next.js's default server action body limit (1 MB, `experimental.serverActions.bodySizeLimit`). */
 export const ACTION_BODY_LIMIT = 1024 * 1024;

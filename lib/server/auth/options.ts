@@ -7,6 +7,7 @@ import { safeCallbackPath } from "@/lib/safe-redirect";
 import { db } from "../db";
 import { authenticate, endSessions } from "@/lib/data/accounts";
 import type { Role } from "@/lib/data/actor";
+import { decodeSessionToken, encodeSessionToken } from "./jwt";
 
 /**
  * next-auth v4 with e-mail and password. The JWT carries the user id, role and session version;
@@ -21,6 +22,8 @@ export function authOptions(): NextAuthOptions {
   return {
     secret: e.NEXTAUTH_SECRET,
     session: { strategy: "jwt", maxAge: 7 * 24 * 3600 },
+    // next-auth's token format, with the key derived once per secret (./jwt.ts).
+    jwt: { encode: encodeSessionToken, decode: decodeSessionToken },
     // httpOnly and SameSite=Lax are next-auth's defaults; Secure follows the app's scheme.
     useSecureCookies: e.APP_URL.startsWith("https://"),
     pages: { signIn: "/sign-in", error: "/sign-in" },

@@ -1,6 +1,5 @@
 import "server-only";
 import { getServerSession } from "next-auth";
-import { decode } from "next-auth/jwt";
 import { cookies } from "next/headers";
 import { forbidden as forbiddenPage, redirect } from "next/navigation";
 import { getSessionUser, type SessionUser } from "@/lib/data/accounts";
@@ -8,6 +7,7 @@ import { forbidden, unauthorized } from "@/lib/data/errors";
 import type { Actor, Role } from "@/lib/data/actor";
 import { db } from "../db";
 import { authOptions } from "./options";
+import { decodeSessionToken } from "./jwt";
 
 export type CurrentUser = SessionUser;
 
@@ -65,7 +65,7 @@ export async function requireTokenActor(...roles: Role[]): Promise<Actor> {
       .map((c) => c.value)
       .join("");
   if (!raw) throw unauthorized();
-  const token = await decode({ token: raw, secret: options.secret! }).catch(() => null);
+  const token = await decodeSessionToken({ token: raw, secret: options.secret! }).catch(() => null);
   if (!token?.uid || !token.role) throw unauthorized();
   if (!roles.includes(token.role)) throw forbidden();
   // The caller's data function compares the version with the database (see Actor).
