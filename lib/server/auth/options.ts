@@ -16,6 +16,14 @@ import { decodeSessionToken, encodeSessionToken } from "./jwt";
  * reset, a suspension or a role change ends every copy of earlier sessions.
  */
 export function authOptions(): NextAuthOptions {
+  // Built once per process (env() is fixed once read): every page and JSON route asks for it.
+  cachedOptions ??= buildAuthOptions();
+  return cachedOptions;
+}
+
+let cachedOptions: NextAuthOptions | undefined;
+
+function buildAuthOptions(): NextAuthOptions {
   const e = env();
   // next-auth builds its callback URLs from NEXTAUTH_URL; ours is APP_URL.
   process.env.NEXTAUTH_URL ??= e.APP_URL;
