@@ -24,6 +24,7 @@ import { DEMO_PASSWORD, DEMO_USERS } from "@/db/seeds/demo";
 import { buildBoardQuery } from "@/lib/data/board";
 import { getBoardReviewer } from "@/lib/data/reviewers";
 import { enqueueEmail } from "@/lib/data/outbox";
+import { getReviewState } from "@/lib/data/review";
 import { TASKS } from "@/lib/worker/schedule";
 import { boardQuerySchema } from "@/lib/validation/board";
 import { startMailFake } from "../../mocks/mail/server";
@@ -95,11 +96,13 @@ async function stopChild(child: ChildProcess) {
   const done = new Promise((r) => child.once("exit", r));
   child.kill("SIGTERM");
   await Promise.race([done, sleep(10_000)]);
+  if (child.exitCode === null && child.signalCode === null) child.kill("SIGKILL");
 }
 
-async function waitFor(url: string, ms = 60_000) {
+async function waitFor(url: string, ms = 60_000, child?: ChildProcess) {
   const until = Date.now() + ms;
   while (Date.now() < until) {
+    if (child && child.exitCode !== null) throw new Error(`${url}: the server exited`);
     try {
       if ((await fetch(url)).status < 500) return;
     } catch {
@@ -111,12 +114,19 @@ async function waitFor(url: string, ms = 60_000) {
 }
 
 const startApp = async (port: number) => {
+  // Measuring a server left over from an earlier run would print its figures as ours.
+  const stale = await fetch(`http://127.0.0.1:${port}/api/health`).then(
+    () => true,
+    () => false,
+  );
+  if (stale)
+    throw new Error(`port ${port} is already in use: stop what runs there (or set BENCH_PORT)`);
   const child = start(
     `app:${port}`,
     ["node_modules/next/dist/bin/next", "start", "-H", "127.0.0.1", "-p", String(port)],
     appEnv(port),
   );
-  await waitFor(`http://127.0.0.1:${port}/api/health`);
+  await waitFor(`http://127.0.0.1:${port}/api/health`, 60_000, child);
   return child;
 };
 
@@ -195,6 +205,82 @@ async function measure(name: string, url: string, cookie = ""): Promise<Load> {
       (r.non2xx || r.errors ? `  (${r.non2xx} non-2xx, ${r.errors} errors)` : ""),
   );
   return r;
+}
+
+/**
+ * The review workspace's autosave under load: PUT one checklist answer, each connection on an item
+ * of its own (as a reviewer's tabs would be), sending the version the last save returned. Every
+ * save locks the job's draft report, so the saves of one job queue behind each other: this is
+ * the worst case of one busy review, not many reviews side by side.
+ */
+async function measureAutosave(
+  base: string,
+  cookie: string,
+  jobId: number,
+  readVersions: () => Promise<Record<string, number>>,
+): Promise<Load & { connections: number; conflicts: number }> {
+  let versions = await readVersions();
+  const keys = Object.keys(versions);
+  const connections = Math.min(CONNECTIONS, keys.length);
+  let next = 0;
+  let conflicts = 0;
+  type Ctx = { item?: string; version?: number; n?: number };
+  const run = (seconds: number) =>
+    autocannon({
+      url: base,
+      connections,
+      duration: seconds,
+      headers: { cookie, "content-type": "application/json" },
+      requests: [
+        {
+          method: "PUT",
+          setupRequest: (req: autocannon.Request, context: object) => {
+            const ctx = context as Ctx;
+            ctx.item ??= keys[next++ % keys.length]!;
+            ctx.version ??= versions[ctx.item]!;
+            ctx.n = (ctx.n ?? 0) + 1;
+            return {
+              ...req,
+              path: `/api/jobs/${jobId}/answers/${encodeURIComponent(ctx.item)}`,
+              body: JSON.stringify({
+                verdict: "sound",
+                noteMd: `Checked on the bench, save ${ctx.n}.`,
+                expectedVersion: ctx.version,
+              }),
+            };
+          },
+          onResponse: (status: number, body: string, context: object) => {
+            const ctx = context as Ctx;
+            const saved = JSON.parse(body) as { version?: number; current?: { version: number } };
+            if (status === 409) conflicts++;
+            ctx.version = saved.version ?? saved.current?.version ?? ctx.version;
+            versions[ctx.item!] = ctx.version!;
+          },
+        },
+      ],
+    });
+  await run(2);
+  // Saves cut off at the end of the warm-up may have landed: start again from what is saved.
+  await drain(base);
+  versions = await readVersions();
+  next = 0;
+  conflicts = 0;
+  const r = await run(SECONDS);
+  const out = {
+    rps: Math.round(r.requests.average),
+    p50: r.latency.p50,
+    p99: r.latency.p99,
+    requests: r.requests.total,
+    non2xx: r.non2xx,
+    errors: r.errors + r.timeouts,
+    bytes: Math.round(r.throughput.total / Math.max(1, r.requests.total)),
+    connections,
+    conflicts,
+  };
+  log(
+    `${"checklist autosave (PUT)".padEnd(28)} ${String(out.rps).padStart(6)} req/s  p50 ${out.p50} ms  p99 ${out.p99} ms  (${connections} connections, one item each; ${out.conflicts} stale-version answers, ${out.non2xx} non-2xx)`,
+  );
+  return out;
 }
 
 /** Wait until requests cut off by the last run have left the server (health answers quickly). */
@@ -425,7 +511,6 @@ async function main() {
     await stopChild(appA);
     await mail.close();
     await payments.close();
-    await payments.close();
     await knex.destroy();
     return;
   }
@@ -442,7 +527,6 @@ async function main() {
     "homeowner dashboard": [`${A}/dashboard`, homeowner],
     "landing page": [`${A}/`, ""],
     "loop check page": [`${A}/loop-check`, ""],
-    // BENCH HOOK (review workspace): the checklist-item autosave POST goes here once it lands.
   };
   for (const [name, [url, cookie]] of Object.entries(routes)) {
     const res = await fetch(url, { headers: cookie ? { cookie } : {}, redirect: "manual" });
@@ -493,6 +577,23 @@ async function main() {
     rss.reset();
     loads[name] = await measure(name, url, cookie);
     if (name.startsWith("board")) boardRss = Math.max(boardRss, rss.peak());
+    await drain(A);
+  }
+  // The review workspace's autosave, on the reviewer's job that is in review.
+  const reviewJob = await knex("jobs")
+    .where({ reviewer_id: reviewerId, state: "in_review" })
+    .first("id");
+  if (reviewJob) {
+    const readVersions = async () => {
+      const state = await getReviewState(knex, { id: reviewerId, role: "reviewer" }, reviewJob.id);
+      return Object.fromEntries(Object.entries(state.answers).map(([k, a]) => [k, a.version]));
+    };
+    loads["checklist autosave (PUT)"] = await measureAutosave(
+      A,
+      reviewer,
+      Number(reviewJob.id),
+      readVersions,
+    );
     await drain(A);
   }
   await stopChild(appA).catch(() => undefined);
@@ -676,6 +777,7 @@ async function main() {
   results.scaling = scaling;
   await stopChild(appS);
   await mail.close();
+  await payments.close();
   await knex.destroy();
 
   results.finishedAt = new Date().toISOString();
@@ -741,6 +843,13 @@ function table(r: Record<string, unknown>): string {
   ];
   return lines.join("\n");
 }
+
+// Stopped part-way (Ctrl-C, a timeout): take the servers down with the bench.
+for (const signal of ["SIGINT", "SIGTERM"] as const)
+  process.once(signal, () => {
+    for (const c of children) if (c.exitCode === null) c.kill("SIGKILL");
+    process.exit(130);
+  });
 
 try {
   await main();
