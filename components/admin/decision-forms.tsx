@@ -57,7 +57,7 @@ export function CredentialDecision({
             className={`${inputClass} min-h-11`}
           />
         </label>
-        <Button type="submit" disabled={verifying} className="min-h-11">
+        <Button type="submit" disabled={verifying} size="compact">
           Verify
         </Button>
       </form>
@@ -76,7 +76,7 @@ export function CredentialDecision({
             aria-describedby={`reason-${credentialId}-error`}
           />
         </label>
-        <Button type="submit" variant="secondary" disabled={rejecting} className="min-h-11">
+        <Button type="submit" variant="secondary" disabled={rejecting} size="compact">
           Reject
         </Button>
       </form>

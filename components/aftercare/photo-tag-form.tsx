@@ -53,7 +53,7 @@ export function PhotoTagForm({
         variant="secondary"
         disabled={pending}
         aria-label={`Save the checks for ${name}`}
-        className="min-h-11 text-sm"
+        size="small"
       >
         {pending ? "Saving…" : "Save the checks"}
       </Button>

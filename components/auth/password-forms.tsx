@@ -2,22 +2,22 @@
 
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
 import Link from "next/link";
+import type { ForgotPasswordInput, ResetPasswordInput } from "@/lib/validation/auth";
 import {
-  forgotPasswordSchema,
-  resetPasswordSchema,
-  type ForgotPasswordInput,
-  type ResetPasswordInput,
-} from "@/lib/validation/auth";
+  confirmRules,
+  emailRules,
+  newPasswordRules,
+  tokenRules,
+} from "@/lib/validation/auth-rules";
 import { Button } from "@/components/ui/button";
 import { chooseNewPassword, requestReset, type ActionState } from "./actions";
 import { TextField } from "./text-field";
 
+// The browser checks with react-hook-form's rules; the server actions parse with zod.
 export function ForgotPasswordForm() {
   const [state, setState] = useState<ActionState | null>(null);
   const form = useForm<ForgotPasswordInput>({
-    resolver: zodResolver(forgotPasswordSchema),
     defaultValues: { email: "" },
   });
   if (state?.ok)
@@ -39,6 +39,7 @@ export function ForgotPasswordForm() {
         label="E-mail"
         type="email"
         autoComplete="email"
+        rules={emailRules}
         serverError={state?.fieldErrors?.email?.[0]}
       />
       <Button type="submit" disabled={form.formState.isSubmitting} className="w-full">
@@ -51,7 +52,6 @@ export function ForgotPasswordForm() {
 export function ResetPasswordForm({ token }: { token: string }) {
   const [state, setState] = useState<ActionState | null>(null);
   const form = useForm<ResetPasswordInput>({
-    resolver: zodResolver(resetPasswordSchema),
     defaultValues: { token, password: "", confirm: "" },
   });
   if (state?.ok)
@@ -71,13 +71,14 @@ export function ResetPasswordForm({ token }: { token: string }) {
       className="space-y-3"
       aria-label="Choose a new password"
     >
-      <input type="hidden" {...form.register("token")} />
+      <input type="hidden" {...form.register("token", tokenRules)} />
       <TextField
         form={form}
         name="password"
         label="New password"
         type="password"
         autoComplete="new-password"
+        rules={newPasswordRules}
         serverError={server("password")}
       />
       <TextField
@@ -86,6 +87,7 @@ export function ResetPasswordForm({ token }: { token: string }) {
         label="New password again"
         type="password"
         autoComplete="new-password"
+        rules={confirmRules}
         serverError={server("confirm")}
       />
       <p aria-live="polite" className="text-sm font-medium text-level-stop">

@@ -2,11 +2,9 @@
 
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
-import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
 import { safeCallbackPath } from "@/lib/safe-redirect";
-import { signInSchema, type SignInInput } from "@/lib/validation/auth";
+import { emailRules, passwordRules } from "@/lib/validation/auth-rules";
 import { Button } from "@/components/ui/button";
 import { TextField } from "./text-field";
 
@@ -16,15 +14,22 @@ const MESSAGES: Record<string, string> = {
     "Too many sign-in attempts. Wait a few minutes, then try again, or reset your password.",
 };
 
+interface SignInInput {
+  email: string;
+  password: string;
+}
+
 export function SignInForm({ callbackUrl }: { callbackUrl: string }) {
   const router = useRouter();
   const [error, setError] = useState<string | null>(null);
+  // The browser checks with react-hook-form's rules; the sign-in handler parses with zod.
   const form = useForm<SignInInput>({
-    resolver: zodResolver(signInSchema),
     defaultValues: { email: "", password: "" },
   });
   const onSubmit = async (values: SignInInput) => {
     setError(null);
+    // next-auth's client is fetched when the form is sent, not with the page.
+    const { signIn } = await import("next-auth/react");
     const r = await signIn("credentials", { ...values, redirect: false });
     if (r?.ok && !r.error) {
       // The page sends a checked path; check again here, against where the browser really is.
@@ -41,13 +46,21 @@ export function SignInForm({ callbackUrl }: { callbackUrl: string }) {
       className="space-y-3"
       aria-label="Sign in"
     >
-      <TextField form={form} name="email" label="E-mail" type="email" autoComplete="email" />
+      <TextField
+        form={form}
+        name="email"
+        label="E-mail"
+        type="email"
+        autoComplete="email"
+        rules={emailRules}
+      />
       <TextField
         form={form}
         name="password"
         label="Password"
         type="password"
         autoComplete="current-password"
+        rules={passwordRules}
       />
       <p role="alert" aria-live="polite" className="text-sm font-medium text-level-stop">
         {error ?? ""}

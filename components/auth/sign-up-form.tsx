@@ -2,10 +2,9 @@
 
 import { useState } from "react";
 import { useForm } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
-import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
-import { signUpSchema, type SignUpInput } from "@/lib/validation/auth";
+import type { SignUpInput } from "@/lib/validation/auth";
+import { displayNameRules, emailRules, newPasswordRules } from "@/lib/validation/auth-rules";
 import { Button } from "@/components/ui/button";
 import { signUp, type ActionState } from "./actions";
 import { TextField } from "./text-field";
@@ -13,14 +12,15 @@ import { TextField } from "./text-field";
 export function SignUpForm({ role }: { role: "homeowner" | "reviewer" }) {
   const router = useRouter();
   const [state, setState] = useState<ActionState | null>(null);
+  // The browser checks with react-hook-form's rules; the server action parses with zod.
   const form = useForm<SignUpInput>({
-    resolver: zodResolver(signUpSchema),
     defaultValues: { role, displayName: "", email: "", password: "" },
   });
   const onSubmit = async (values: SignUpInput) => {
     const r = await signUp(values);
     setState(r);
     if (!r.ok) return;
+    const { signIn } = await import("next-auth/react");
     const s = await signIn("credentials", {
       email: values.email,
       password: values.password,
@@ -43,6 +43,7 @@ export function SignUpForm({ role }: { role: "homeowner" | "reviewer" }) {
         name="displayName"
         label="Your name"
         autoComplete="name"
+        rules={displayNameRules}
         serverError={server("displayName")}
       />
       <TextField
@@ -51,6 +52,7 @@ export function SignUpForm({ role }: { role: "homeowner" | "reviewer" }) {
         label="E-mail"
         type="email"
         autoComplete="email"
+        rules={emailRules}
         serverError={server("email")}
       />
       <TextField
@@ -59,6 +61,7 @@ export function SignUpForm({ role }: { role: "homeowner" | "reviewer" }) {
         label="Password"
         type="password"
         autoComplete="new-password"
+        rules={newPasswordRules}
         hint="At least 10 characters, not a common password"
         serverError={server("password")}
       />

@@ -1,6 +1,6 @@
 "use client";
 
-import type { FieldValues, Path, UseFormReturn } from "react-hook-form";
+import type { FieldValues, Path, RegisterOptions, UseFormReturn } from "react-hook-form";
 import { Field, inputClass } from "@/components/ui/field";
 
 export interface TextFieldProps<T extends FieldValues> {
@@ -11,6 +11,8 @@ export interface TextFieldProps<T extends FieldValues> {
   autoComplete?: string;
   hint?: string;
   serverError?: string;
+  /** The browser's checks (react-hook-form rules); the server checks again. */
+  rules?: RegisterOptions<T, Path<T>>;
 }
 
 /** A text input bound to react-hook-form, with its error (client or server) beside it. */
@@ -22,6 +24,7 @@ export function TextField<T extends FieldValues>({
   autoComplete,
   hint,
   serverError,
+  rules,
 }: TextFieldProps<T>) {
   const id = `f-${String(name)}`;
   const error = (form.formState.errors[name]?.message as string | undefined) ?? serverError;
@@ -34,7 +37,7 @@ export function TextField<T extends FieldValues>({
         className={inputClass}
         aria-invalid={error ? true : undefined}
         aria-describedby={`${id}-error`}
-        {...form.register(name)}
+        {...form.register(name, rules)}
       />
     </Field>
   );

@@ -82,7 +82,7 @@ export function VisitForm({
         type="submit"
         variant={mode === "propose" ? "primary" : "secondary"}
         disabled={pending}
-        className="min-h-11"
+        size="compact"
       >
         {pending ? "Sending…" : submitLabel}
       </Button>

@@ -1,29 +1,34 @@
 "use client";
 
 import { useEffect, useRef, useState } from "react";
-import { useForm, useWatch } from "react-hook-form";
-import { zodResolver } from "@hookform/resolvers/zod";
-import { systemSchema, type System, type SystemInput } from "@/lib/validation/system";
-import { runLoopCheck, type LoopCheckResult } from "@/lib/calc/loop-check";
+import { useForm, useWatch, type Resolver } from "react-hook-form";
+import type { System, SystemInput } from "@/lib/validation/system";
+import type { LoopCheckResult } from "@/lib/calc/loop-check";
 import { Button } from "@/components/ui/button";
 import { Card } from "@/components/ui/card";
 import { SectionFields } from "./section-fields";
-import { SECTIONS } from "./system-fields";
+import type { SectionDef } from "./system-fields";
 import { LevelBadge } from "./level-badge";
 import { levelCounts, LoopCheckResults } from "./loop-check-results";
 
 export interface LoopCheckFormProps {
   defaultValues: SystemInput;
+  /** The loop check of `defaultValues`, run on the server. */
+  initialResult: LoopCheckResult;
+  /** `SECTIONS`, passed by the page: the schema they come from stays on the server. */
+  sections: readonly SectionDef[];
 }
 
+/** The schema and the calculation, fetched once when someone first edits a field. */
+const loadCheck = () => import("./browser-check");
+
+const resolver: Resolver<SystemInput, unknown, System> = async (values, context, options) =>
+  (await loadCheck()).systemResolver(values, context, options);
+
 /** The public loop check: the whole description on one page, checked in the browser. */
-export function LoopCheckForm({ defaultValues }: LoopCheckFormProps) {
-  const [result, setResult] = useState<LoopCheckResult>(() => runLoopCheck(defaultValues));
-  const form = useForm<SystemInput, unknown, System>({
-    resolver: zodResolver(systemSchema),
-    defaultValues,
-    mode: "onBlur",
-  });
+export function LoopCheckForm({ defaultValues, initialResult, sections }: LoopCheckFormProps) {
+  const [result, setResult] = useState<LoopCheckResult>(initialResult);
+  const form = useForm<SystemInput, unknown, System>({ resolver, defaultValues, mode: "onBlur" });
 
   // The results follow the fields as they change (debounced): runLoopCheck validates each
   // section itself and never throws, so a half-typed value only holds back its own findings.
@@ -34,8 +39,18 @@ export function LoopCheckForm({ defaultValues }: LoopCheckFormProps) {
       firstRun.current = false;
       return;
     }
-    const timer = setTimeout(() => setResult(runLoopCheck(values as SystemInput)), 400);
-    return () => clearTimeout(timer);
+    let live = true;
+    const timer = setTimeout(
+      () =>
+        void loadCheck().then(({ runLoopCheck }) => {
+          if (live) setResult(runLoopCheck(values as SystemInput));
+        }),
+      400,
+    );
+    return () => {
+      live = false;
+      clearTimeout(timer);
+    };
   }, [values]);
 
   const showResults = () => {
@@ -44,7 +59,8 @@ export function LoopCheckForm({ defaultValues }: LoopCheckFormProps) {
     box?.querySelector<HTMLElement>("#results-title")?.focus({ preventScroll: true });
   };
 
-  const onValid = (system: System) => {
+  const onValid = async (system: System) => {
+    const { runLoopCheck } = await loadCheck();
     setResult(runLoopCheck(system));
     showResults();
   };
@@ -57,7 +73,7 @@ export function LoopCheckForm({ defaultValues }: LoopCheckFormProps) {
         aria-label="System description"
         className="space-y-6"
       >
-        {SECTIONS.map((section) => (
+        {sections.map((section) => (
           <Card key={section.id}>
             <SectionFields form={form} section={section} />
           </Card>

@@ -12,8 +12,7 @@ export function DeleteProjectButton({ projectId }: { projectId: number }) {
       submitLabel="Delete this project"
       pendingLabel="Deleting…"
       confirm="Delete this project, its request, sketch and photos? This cannot be undone."
-      variant="secondary"
-      buttonClassName="border-level-stop text-level-stop hover:bg-level-stop-bg"
+      variant="danger"
     />
   );
 }

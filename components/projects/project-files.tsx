@@ -167,7 +167,8 @@ export function ProjectFiles({ projectId, files }: { projectId: number; files: P
               pendingLabel="Deleting…"
               buttonAriaLabel={`Delete ${f.caption ?? f.fileName}`}
               className="mt-2"
-              buttonClassName="text-sm text-level-stop hover:bg-level-stop-bg"
+              variant="danger-ghost"
+              buttonSize="small"
             />
           </li>
         ))}

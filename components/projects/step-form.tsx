@@ -7,23 +7,24 @@ import type { SystemInput } from "@/lib/validation/system";
 import type { SystemFormValues } from "@/lib/validation/system-fields";
 import { Button } from "@/components/ui/button";
 import { SectionFields } from "@/components/loop-check/section-fields";
-import { SECTIONS } from "@/components/loop-check/system-fields";
+import type { SectionDef } from "@/components/loop-check/system-fields";
 import { saveStep } from "./actions";
 
 export interface StepFormProps {
   projectId: number;
-  step: (typeof SECTIONS)[number]["id"];
+  /** This step's fields, from `SECTIONS` (the page passes them: the schema stays on the server). */
+  section: SectionDef;
+  /** The step after this one, if any. */
+  next?: Pick<SectionDef, "id" | "title">;
   defaultValues: SystemFormValues;
 }
 
 /** One step of the stepped description form; saves the step as a draft and moves on. */
-export function StepForm({ projectId, step, defaultValues }: StepFormProps) {
+export function StepForm({ projectId, section, next, defaultValues }: StepFormProps) {
   const router = useRouter();
   const [message, setMessage] = useState<string | null>(null);
   const form = useForm<SystemInput>({ defaultValues });
-  const index = SECTIONS.findIndex((s) => s.id === step);
-  const section = SECTIONS[index]!;
-  const next = SECTIONS[index + 1];
+  const step = section.id;
 
   const onSubmit = async (values: SystemInput) => {
     setMessage(null);

@@ -30,7 +30,8 @@ export function AcceptButton({
     <>
       <Button
         type="button"
-        className="min-h-11 w-full"
+        size="compact"
+        className="w-full"
         aria-label={`Accept the quote from ${label}`}
         onClick={() => setConfirming(true)}
       >

@@ -3,7 +3,7 @@
 import { useActionState } from "react";
 import { idleState, type ActionState } from "@/lib/types/action";
 import { cn } from "@/lib/cn";
-import { Button, type ButtonVariant } from "./button";
+import { Button, type ButtonSize, type ButtonVariant } from "./button";
 
 export interface ActionFormProps {
   action: (prev: ActionState, formData: FormData) => Promise<ActionState>;
@@ -15,7 +15,8 @@ export interface ActionFormProps {
   confirm?: string;
   variant?: ButtonVariant;
   className?: string;
-  buttonClassName?: string;
+  /** 44 px by default. */
+  buttonSize?: ButtonSize;
   /** Accessible name of the button when the label alone is ambiguous (one per row of a table). */
   buttonAriaLabel?: string;
   /** Extra inputs shown above the button. */
@@ -34,7 +35,7 @@ export function ActionForm({
   confirm,
   variant = "ghost",
   className,
-  buttonClassName,
+  buttonSize = "compact",
   buttonAriaLabel,
   children,
 }: ActionFormProps) {
@@ -56,7 +57,7 @@ export function ActionForm({
         variant={variant}
         disabled={pending}
         aria-label={buttonAriaLabel}
-        className={cn("min-h-11", buttonClassName)}
+        size={buttonSize}
       >
         {pending ? (pendingLabel ?? `${submitLabel}…`) : submitLabel}
       </Button>

@@ -1,4 +1,4 @@
-import { cn } from "@/lib/cn";
+import { clsx } from "clsx";
 
 export interface FieldProps {
   id: string;
@@ -13,7 +13,7 @@ export interface FieldProps {
 /** A labelled form control with its unit, a hint and an error announced to screen readers. */
 export function Field({ id, label, unit, hint, error, children, className }: FieldProps) {
   return (
-    <div className={cn("flex flex-col gap-1", className)}>
+    <div className={clsx("flex flex-col gap-1", className)}>
       <label htmlFor={id} className="text-sm font-semibold text-slate-800">
         {label}
         {unit ? <span className="ml-1 font-normal text-slate-500">({unit})</span> : null}

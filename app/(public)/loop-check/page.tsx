@@ -1,9 +1,14 @@
 import type { Metadata } from "next";
 import { LoopCheckForm } from "@/components/loop-check/loop-check-form";
+import { SECTIONS } from "@/components/loop-check/system-fields";
+import { runLoopCheck } from "@/lib/calc/loop-check";
 import { Cautions } from "@/components/ui/caution";
 import { demoSystem } from "@/lib/calc/demo-system";
 
 export const metadata: Metadata = { title: "Loop check" };
+
+/** The example's results, worked out once on the server; the browser checks every change. */
+const demoResult = runLoopCheck(demoSystem);
 
 export default function LoopCheckPage() {
   return (
@@ -18,7 +23,7 @@ export default function LoopCheckPage() {
         </p>
       </header>
       <Cautions compact />
-      <LoopCheckForm defaultValues={demoSystem} />
+      <LoopCheckForm defaultValues={demoSystem} initialResult={demoResult} sections={SECTIONS} />
     </div>
   );
 }

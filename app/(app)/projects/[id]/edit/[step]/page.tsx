@@ -26,6 +26,7 @@ export default async function EditStepPage({
     if (err instanceof HttpError && err.status === 404) notFound();
     throw err;
   });
+  const next = SECTIONS[SECTIONS.indexOf(section) + 1];
   const saved = new Set(Object.keys(project.system));
   return (
     <div className="grid gap-6 lg:grid-cols-[16rem_minmax(0,1fr)]">
@@ -57,7 +58,8 @@ export default async function EditStepPage({
         <StepForm
           key={step}
           projectId={project.id}
-          step={section.id}
+          section={section}
+          next={next ? { id: next.id, title: next.title } : undefined}
           defaultValues={formDefaults(project.system)}
         />
       </Card>
