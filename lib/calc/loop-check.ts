@@ -213,15 +213,29 @@ function parseSections(draft: SystemDraft, findings: Finding[]): Sections {
   return out;
 }
 
+/** What zod's bare "expected <type>" means, for a type mismatch with no message of our own. */
+const EXPECTED_WORDS: Record<string, string> = {
+  object: "a group of details",
+  array: "a list",
+  number: "a number",
+  string: "text",
+  boolean: "yes or no",
+};
+
 /** A schema issue in words: the field's label (never its key) and the message. */
 function issueText(
   section: SystemSection,
-  issue: { path: PropertyKey[]; message: string } | undefined,
+  issue: { path: PropertyKey[]; message: string; code?: string; expected?: unknown } | undefined,
   prefix: PropertyKey[] = [],
 ): string {
   if (!issue) return "invalid";
   const where = describeFieldPath(section, [...prefix, ...issue.path]);
-  return where ? `${where}: ${issue.message}` : issue.message;
+  // zod's own wording ("Invalid input: expected object, received NaN") is for developers.
+  const message =
+    issue.code === "invalid_type" && issue.message.startsWith("Invalid input")
+      ? `expected ${EXPECTED_WORDS[String(issue.expected)] ?? "another kind of value"} here`
+      : issue.message;
+  return where ? `${where}: ${message}` : message;
 }
 
 function missing(section: SystemSection, detail: string): Finding {

@@ -231,7 +231,7 @@ describe("properties", () => {
       const r = runLoopCheck(hostile as never);
       expect(r.findings.filter((f) => f.key === "input").map((f) => f.title)).toEqual([
         typeof hostile === "object" && hostile && "site" in hostile
-          ? "Site: Invalid input: expected object, received string"
+          ? "Site: expected a group of details here"
           : "Site: not filled in yet",
         "Collector array: not filled in yet",
         "Pipe runs: add at least one pipe run",
