@@ -498,16 +498,25 @@ async function main() {
     await knex("requests").where({ status: "open" }).orderBy("id", "desc").first("id")
   ).id;
   const job = await knex("jobs").where({ homeowner_id: homeownerId }).first("id");
+  // A delivered report the reviewer wrote (the reviewer may read it, as the homeowner may).
+  const delivered = await knex("jobs")
+    .where({ reviewer_id: reviewerId })
+    .whereIn("state", ["delivered", "released"])
+    .first("id");
+  const jsPages = (firstStep: number) => ({
+    landing: { path: "/", cookie: "" },
+    "sign-in": { path: "/sign-in", cookie: "" },
+    "loop check": { path: "/loop-check", cookie: "" },
+    "project steps": { path: `/projects/${firstStep}/edit/site`, cookie: homeowner },
+    dashboard: { path: "/dashboard", cookie: homeowner },
+    board: { path: "/board", cookie: reviewer },
+    "request page": { path: `/requests/${openRequest}`, cookie: reviewer },
+    ...(job ? { "job page": { path: `/jobs/${job.id}`, cookie: homeowner } } : {}),
+    ...(delivered ? { report: { path: `/jobs/${delivered.id}/report`, cookie: reviewer } } : {}),
+  });
 
   if (JS_ONLY) {
-    await firstLoadJs(A, {
-      landing: { path: "/", cookie: "" },
-      "sign-in": { path: "/sign-in", cookie: "" },
-      "loop check": { path: "/loop-check", cookie: "" },
-      "project steps": { path: `/projects/${project.id}/edit/site`, cookie: homeowner },
-      board: { path: "/board", cookie: reviewer },
-      "request page": { path: `/requests/${openRequest}`, cookie: reviewer },
-    });
+    await firstLoadJs(A, jsPages(project.id));
     await stopChild(appA);
     await mail.close();
     await payments.close();
@@ -627,17 +636,7 @@ async function main() {
   // First-load JavaScript in Chromium, one instance, no load.
   const appA2 = await startApp(PORTS.a);
   const firstStep = (await knex("projects").where({ id: project.id }).first("id")).id;
-  results.firstLoadJsKb = await firstLoadJs(A, {
-    landing: { path: "/", cookie: "" },
-    "sign-in": { path: "/sign-in", cookie: "" },
-    "loop check": { path: "/loop-check", cookie: "" },
-    "project steps": { path: `/projects/${firstStep}/edit/site`, cookie: homeowner },
-    dashboard: { path: "/dashboard", cookie: homeowner },
-    board: { path: "/board", cookie: reviewer },
-    "request page": { path: `/requests/${openRequest}`, cookie: reviewer },
-    ...(job ? { "job page": { path: `/jobs/${job.id}`, cookie: homeowner } } : {}),
-    // The report page: add it here once the review workspace lands.
-  });
+  results.firstLoadJsKb = await firstLoadJs(A, jsPages(firstStep));
 
   // Scale-out: two app instances and two workers on one database.
   log("scale-out: a second app instance and two workers against the same database");
