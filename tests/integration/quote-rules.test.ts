@@ -261,6 +261,25 @@ describe("quote rules, exactly", () => {
       expect(list[0]).toMatchObject({ distanceKm: null, rating: null, ratingCount: 0 });
     });
 
+    it("orders by price whatever order the quotes came in", async () => {
+      const { owner, request } = await openRequest();
+      for (const priceMinor of [12000, 8000, 10000, 9000])
+        await makeQuote(knex, request, await makeReviewer(knex), { priceMinor });
+      expect(
+        (await listQuotesForHomeowner(knex, owner, request.id)).map((q) => q.priceMinor),
+      ).toEqual([8000, 9000, 10000, 12000]);
+    });
+
+    it("a suspended reviewer's quote is hidden even once accepted", async () => {
+      const { owner, request } = await openRequest();
+      const reviewer = await makeReviewer(knex);
+      await makeQuote(knex, request, reviewer, { status: "accepted" });
+      await knex("reviewer_profiles")
+        .where({ user_id: reviewer.id })
+        .update({ suspended_at: "2031-01-01 00:00:00", suspended_reason: "test" });
+      expect(await listQuotesForHomeowner(knex, owner, request.id)).toEqual([]);
+    });
+
     it("no distance for a request without a site (a remote check)", async () => {
       const { owner, request } = await openRequest();
       await makeQuote(knex, request, await makeReviewer(knex, { centreLat: 52, centreLng: -2 }));
@@ -383,6 +402,19 @@ describe("quote rules, exactly", () => {
   });
 
   describe("declining", () => {
+    it("declining without a reason keeps none, and e-mails the reviewer", async () => {
+      const { owner, request } = await openRequest();
+      const q = await makeQuote(knex, request, await makeReviewer(knex));
+      await declineQuote(knex, owner, q.id, undefined, APP);
+      expect(await knex("quotes").where({ id: q.id }).first("status", "decline_reason")).toEqual({
+        status: "declined",
+        decline_reason: null,
+      });
+      expect(
+        await knex("email_outbox").where({ template: "quote_declined", to_user_id: q.reviewerId }),
+      ).toHaveLength(1);
+    });
+
     it("keeps no empty reason, cuts a long one to 1,000 characters; an unknown quote is 404", async () => {
       const { owner, request } = await openRequest();
       const a = await makeQuote(knex, request, await makeReviewer(knex));
