@@ -383,6 +383,18 @@ describe("quote rules, exactly", () => {
       });
     });
 
+    it("another homeowner may not accept: 404, and nothing changes", async () => {
+      const { request } = await openRequest();
+      const q = await makeQuote(knex, request, await makeReviewer(knex));
+      const r = await refusalOf(acceptQuote(knex, await makeHomeowner(knex), q.id, APP));
+      expect([r.status, r.message]).toEqual([404, "No such quote."]);
+      expect((await knex("quotes").where({ id: q.id }).first("status")).status).toBe("live");
+      expect((await knex("requests").where({ id: request.id }).first("status")).status).toBe(
+        "open",
+      );
+      expect(await knex("jobs")).toHaveLength(0);
+    });
+
     it("refuses an unknown quote (404), a lapsed reviewer's quote (409), and leaves the request open", async () => {
       const { owner, request } = await openRequest();
       const missing = await refusalOf(acceptQuote(knex, owner, 987654, APP));
