@@ -98,7 +98,17 @@ const clientBoundary = {
 const config = [
   ...next,
   ...nextTs,
-  { ignores: [".next/**", "node_modules/**", ".data/**", "next-env.d.ts", "coverage/**"] },
+  // .stryker-tmp: the sandbox copies of a mutation run in progress.
+  {
+    ignores: [
+      ".next/**",
+      "node_modules/**",
+      ".data/**",
+      "next-env.d.ts",
+      "coverage/**",
+      ".stryker-tmp/**",
+    ],
+  },
   {
     plugins: { loopwright: { rules: { "client-boundary": clientBoundary } } },
     rules: {

@@ -25,6 +25,9 @@ const config = {
   // One database and one set of fake ports: the runs must not overlap.
   concurrency: 1,
   timeoutMS: 60_000,
+  // The first run (every related integration test, with coverage) takes over Stryker's default
+  // 5 minutes on a loaded 2-core machine.
+  dryRunTimeoutMinutes: 30,
   incremental: true,
   incrementalFile: "reports/mutation/data/stryker-incremental.json",
   reporters: ["clear-text", "progress-append-only", "html", "json"],

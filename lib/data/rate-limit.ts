@@ -76,8 +76,10 @@ function limiters(db: Db): LimiterSet {
   return set;
 }
 
-const normEmail = (email: string) => email.trim().toLowerCase().slice(0, 190);
-const pairKey = (email: string, address: string) => `${normEmail(email)}|${address.slice(0, 60)}`;
+// Keys fit `rate_limits.key` (255): the longest prefix (14) + e-mail (180) + "|" + address (60).
+const normEmail = (email: string) => email.trim().toLowerCase().slice(0, 180);
+const normAddress = (address: string) => address.slice(0, 60);
+const pairKey = (email: string, address: string) => `${normEmail(email)}|${normAddress(address)}`;
 
 /** Seconds until a rejected counter allows again (at least 1). */
 const waitS = (res: RateLimiterRes) => Math.max(1, Math.ceil(res.msBeforeNext / 1000));
@@ -87,7 +89,7 @@ export async function signInWait(db: Db, email: string, address: string): Promis
   const l = limiters(db);
   const [pair, addr] = await Promise.all([
     l.pair.get(pairKey(email, address)),
-    l.address.get(address),
+    l.address.get(normAddress(address)),
   ]);
   let wait = 0;
   if (pair && pair.consumedPoints > SIGN_IN_LIMITS.perPair) wait = waitS(pair);
@@ -128,7 +130,7 @@ export async function recordSignInFailure(
     );
   const [pairOver, , account] = await Promise.all([
     overLimit(l.pair.consume(key)),
-    overLimit(l.address.consume(address)),
+    overLimit(l.address.consume(normAddress(address))),
     l.account.consume(normEmail(email)),
   ]);
   if (pairOver) {
@@ -172,13 +174,13 @@ async function take(limiter: Limiter, key: string, message: string): Promise<voi
 /** A sign-up from this address for this e-mail: 429 over either limit. */
 export async function limitSignUp(db: Db, address: string, email: string): Promise<void> {
   const l = limiters(db);
-  await take(l.signUpAddress, address, "Too many new accounts from this network.");
+  await take(l.signUpAddress, normAddress(address), "Too many new accounts from this network.");
   await take(l.signUpAccount, normEmail(email), "Too many sign-ups for this e-mail address.");
 }
 
 /** A password-reset e-mail from this address to this account: 429 over either limit. */
 export async function limitPasswordReset(db: Db, address: string, email: string): Promise<void> {
   const l = limiters(db);
-  await take(l.resetAddress, address, "Too many reset requests from this network.");
+  await take(l.resetAddress, normAddress(address), "Too many reset requests from this network.");
   await take(l.resetAccount, normEmail(email), "Too many reset e-mails for this address.");
 }

@@ -27,7 +27,15 @@ export default defineConfig({
     // The migrations test rolls everything back and forth; the data rules do not need it.
     exclude: ["tests/integration/migrations.test.ts"],
     globalSetup: ["tests/support/global-setup-integration.ts"],
-    env: { DB_TEST_NAME: process.env.DB_TEST_NAME, TEST_PORT_OFFSET: process.env.TEST_PORT_OFFSET },
+    env: {
+      DB_TEST_NAME: process.env.DB_TEST_NAME,
+      TEST_PORT_OFFSET: process.env.TEST_PORT_OFFSET,
+      // As in vitest.config.ts: code that builds its own payment client (the demo seed) reaches
+      // this run's payment fake.
+      STRIPE_API_HOST: "127.0.0.1",
+      STRIPE_API_PORT: String(12112 + Number(process.env.TEST_PORT_OFFSET)),
+      STRIPE_API_PROTOCOL: "http",
+    },
     fileParallelism: false,
     testTimeout: 30_000,
     hookTimeout: 120_000,
