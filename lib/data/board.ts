@@ -109,11 +109,12 @@ const KM_PER_DEGREE_LAT = 111.19;
  * circle lies in (a site within k km is within k / 111.19 degrees of latitude), which changes no
  * result but narrows the index range before the distance is worked out.
  *
- * A deferred join: the inner query picks the page's ids (and sort values) from the
- * requests_board_* indexes alone, without reading the wide request rows (each holds the system
- * and loop-check snapshots); the outer query reads only those `limit + 1` rows by primary key.
- * The distance sort has to work the distance out for every site visit, so its index
- * (requests_board_distance) carries every column a filter reads.
+ * The newest, budget and soonest sorts read their index in order and stop after the page. The
+ * distance sort and filter must work the distance out for every site visit in range, so they
+ * run as a deferred join: the inner query picks the page's ids (and distances) from
+ * requests_board_distance alone, an index that carries every column a filter reads, without
+ * touching the wide request rows (each holds the system and loop-check snapshots); the outer
+ * query then reads only those `limit + 1` rows by primary key.
  */
 export function buildBoardQuery(
   db: Db,
@@ -179,11 +180,39 @@ export function buildBoardQuery(
     // By the alias, so the distance is worked out once per row for the select and the sort.
     b.orderByRaw(`sort_key ${key.dir.toUpperCase()}`).orderBy("r.id", "desc");
   }
+  const columns = (t: string) =>
+    [
+      "id",
+      "kind",
+      "region",
+      "collector_type",
+      "budget_min_minor",
+      "budget_max_minor",
+      "currency",
+      "window_start",
+      "window_end",
+      "created_at",
+      "expires_at",
+    ].map((c) => `${t}.${c}`);
+  // The newest, budget and soonest sorts read their index in order and stop at the page: one
+  // query, the rows read by primary key as they are taken.
+  if (!centre || (q.sort !== "distance" && !q.withinKm)) {
+    return b
+      .leftJoin("projects as p", "p.id", "r.project_id")
+      .limit(limit + 1)
+      .select(
+        ...columns("r"),
+        "p.worst_level",
+        centre
+          ? db.raw("? AS distance_km", [distanceSql(db, centre)])
+          : db.raw("NULL AS distance_km"),
+      );
+  }
   const ids = b.limit(limit + 1).select(
     "r.id",
     db.raw("? AS sort_key", [typeof key.col === "string" ? db.ref(key.col) : key.col]),
     // Sorted by distance, the sort key is the distance; otherwise it is worked out here.
-    centre && q.sort !== "distance"
+    q.sort !== "distance"
       ? db.raw("? AS distance_km", [distanceSql(db, centre)])
       : db.raw("NULL AS distance_km"),
   );
@@ -196,18 +225,8 @@ export function buildBoardQuery(
       { column: "page.id", order: "desc" },
     ])
     .select(
-      "rq.id",
-      "rq.kind",
-      "rq.region",
-      "rq.collector_type",
-      "rq.budget_min_minor",
-      "rq.budget_max_minor",
-      "rq.currency",
-      "rq.window_start",
-      "rq.window_end",
-      "rq.created_at",
-      "rq.expires_at",
+      ...columns("rq"),
       "p.worst_level",
-      q.sort === "distance" && centre ? "page.sort_key as distance_km" : "page.distance_km",
+      q.sort === "distance" ? "page.sort_key as distance_km" : "page.distance_km",
     );
 }
