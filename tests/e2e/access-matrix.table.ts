@@ -161,6 +161,8 @@ export const PAGES: Record<string, PageRow> = {
   "/reset-password": page(PUBLIC_PAGE),
   "/verify-email": page(PUBLIC_PAGE),
   "/reviewers/[id]": page(PUBLIC_PAGE, { id: "jobReviewer" }),
+  // Any address no page answers: the not-found page, for everyone.
+  "/[...missing]": page(rule<PageOutcome>(404), { missing: "no-such-page" }),
   "/dashboard": page(SIGNED_IN_PAGE),
   "/settings/notifications": page(SIGNED_IN_PAGE),
   "/projects/new": page(HOMEOWNER_PAGE),
