@@ -108,14 +108,9 @@ export default async function proxy(req: NextRequest, event: NextFetchEvent) {
     connectUrls: [e.UPLOADTHING_INGEST_URL],
     dev: process.env.NODE_ENV === "development",
   });
-  if (nonce === null) {
-    const res = NextResponse.next();
-    res.headers.set("content-security-policy", csp);
-    return res;
-  }
+  // Next.js finds the nonce in the request's CSP header and puts it on the scripts it renders.
   const headers = new Headers(req.headers);
-  headers.set("x-nonce", nonce);
-  headers.set("content-security-policy", csp);
+  if (nonce !== null) headers.set("content-security-policy", csp);
   const res = NextResponse.next({ request: { headers } });
   res.headers.set("content-security-policy", csp);
   return res;

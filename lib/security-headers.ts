@@ -43,20 +43,20 @@ export function contentSecurityPolicy(o: CspOptions): string {
   const https = o.appUrl.startsWith("https://");
   const connect = ["'self'", ...o.connectUrls.map(originOf).filter((x): x is string => x !== null)];
   if (o.dev) connect.push("ws:", "wss:");
+  // What lets this page's own inline scripts and styles run: the nonce, or (prerendered) none.
+  const inline = o.nonce === null ? "'unsafe-inline'" : `'nonce-${o.nonce}'`;
   const directives = [
     "default-src 'self'",
     // A prerendered page's inline scripts are Next.js's own, fixed at build time: without a
     // nonce they need 'unsafe-inline'. Such a page holds nothing a visitor or another user wrote
     // (STATIC_PAGES), so there is nothing for an injected script to ride in on.
-    o.nonce === null
-      ? "script-src 'self' 'unsafe-inline'"
-      : `script-src 'self' 'nonce-${o.nonce}' 'strict-dynamic'${o.dev ? " 'unsafe-eval'" : ""}`,
+    `script-src 'self' ${inline}${o.nonce === null ? "" : " 'strict-dynamic'"}${o.dev ? " 'unsafe-eval'" : ""}`,
     // <style> elements need the nonce. Style *attributes* cannot carry one, and React renders
     // `style={{…}}` props as attributes in server HTML (Recharts sizes and positions its SVG
     // that way; the upload button and Next.js' own error overlay do the same), so inline
     // attributes are allowed. A style attribute cannot run script.
-    `style-src 'self' ${o.nonce === null ? "'unsafe-inline'" : `'nonce-${o.nonce}'`}`,
-    `style-src-elem 'self' ${o.nonce === null ? "'unsafe-inline'" : `'nonce-${o.nonce}'`}`,
+    `style-src 'self' ${inline}`,
+    `style-src-elem 'self' ${inline}`,
     "style-src-attr 'unsafe-inline'",
     // blob: for the preview of a photo being chosen; data: for small inline icons.
     "img-src 'self' blob: data:",

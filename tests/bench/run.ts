@@ -185,6 +185,10 @@ async function load(url: string, cookie = "", seconds = SECONDS, connections = C
     duration: seconds,
     headers: cookie ? { cookie } : {},
   });
+  return toLoad(r);
+}
+
+function toLoad(r: autocannon.Result): Load {
   return {
     rps: Math.round(r.requests.average),
     p50: r.latency.p50,
@@ -193,7 +197,7 @@ async function load(url: string, cookie = "", seconds = SECONDS, connections = C
     non2xx: r.non2xx,
     errors: r.errors + r.timeouts,
     bytes: Math.round(r.throughput.total / Math.max(1, r.requests.total)),
-  } satisfies Load;
+  };
 }
 
 /** A short warm-up (JIT, pools, caches), then the measured run. */
@@ -266,17 +270,7 @@ async function measureAutosave(
   next = 0;
   conflicts = 0;
   const r = await run(SECONDS);
-  const out = {
-    rps: Math.round(r.requests.average),
-    p50: r.latency.p50,
-    p99: r.latency.p99,
-    requests: r.requests.total,
-    non2xx: r.non2xx,
-    errors: r.errors + r.timeouts,
-    bytes: Math.round(r.throughput.total / Math.max(1, r.requests.total)),
-    connections,
-    conflicts,
-  };
+  const out = { ...toLoad(r), connections, conflicts };
   log(
     `${"checklist autosave (PUT)".padEnd(28)} ${String(out.rps).padStart(6)} req/s  p50 ${out.p50} ms  p99 ${out.p99} ms  (${connections} connections, one item each; ${out.conflicts} stale-version answers, ${out.non2xx} non-2xx)`,
   );
