@@ -8,6 +8,7 @@ import { describe, expect, it } from "vitest";
 import {
   compareFirstFill,
   designPressureAt,
+  type FirstFillComparison,
   type FirstFillDesign,
   type FirstFillReading,
 } from "@/lib/calc/first-fill";
@@ -182,11 +183,10 @@ describe("the safety overrides", () => {
 });
 
 describe("the words each outcome shows", () => {
+  const line = (i: FirstFillComparison) =>
+    `${i.key} | ${i.label} | ${i.measured} | ${i.design} | ${i.tolerance} | ${i.status} | ${i.meaning} | ${i.source}`;
   const words = (reading: Partial<FirstFillReading>, d: Partial<FirstFillDesign> = {}) =>
-    compareFirstFill({ ...ok, ...reading }, { ...design, ...d }).items.map(
-      (i) =>
-        `${i.key} | ${i.label} | ${i.measured} | ${i.design} | ${i.tolerance} | ${i.status} | ${i.meaning} | ${i.source}`,
-    );
+    compareFirstFill({ ...ok, ...reading }, { ...design, ...d }).items.map(line);
 
   it("when everything matches", () => {
     const r = compareFirstFill(
@@ -194,20 +194,15 @@ describe("the words each outcome shows", () => {
       { ...design, prechargeRecommendedBar: 1.8 },
     );
     expect(r.differs).toBe(0);
-    expect(
-      r.items.map(
-        (i) =>
-          `${i.key} | ${i.label} | ${i.measured} | ${i.design} | ${i.tolerance} | ${i.meaning} | ${i.source}`,
-      ),
-    ).toMatchInlineSnapshot(`
+    expect(r.items.map(line)).toMatchInlineSnapshot(`
       [
-        "cold-fill | Cold fill pressure | 2 bar | 2 bar at 20 °C | ±0.2 bar (common practice) | Matches the design. | Design value from the loop check (VDI 6002-1 water seal; EN 12828)",
-        "precharge | Vessel pre-charge (before filling) | 1.5 bar | 1.5 bar (recommended 1.8 bar) | −0.2 / +0.5 bar (common practice) | Matches the design. | Recommended pre-charge: VDI 6002-1 (from memory), as in the loop check",
-        "fill-margin | Fill pressure above the pre-charge | 0.5 bar above | at least 0.3 bar above | none | The vessel holds fluid when cold (its water seal). | EN 12828, fill at least pre-charge + 0.3 bar (from memory)",
-        "hot-pressure | Hot pressure at 60 °C | 3 bar | 3 bar | ±0.3 bar (common practice) | Matches the design. | Design curve from the loop check (Boyle's law on the vessel's gas side)",
-        "glycol | Glycol concentration | 40 % by mass (freezes at -20.6 °C) | 40 % by mass | ±3 points (common practice) | Matches the design. | Freezing point: Melinder (2010), as in the loop check",
-        "freeze-point | Freeze point | -21 °C | -21 °C | ±2 K (common practice) | Matches the design. | Freezing point: Melinder (2010), as in the loop check",
-        "flow | Flow rate | 100 L/h | 100 L/h | ±20 % (common practice) | Matches the design. | Design flow from the loop check (Kalogirou 2009 low-flow band; high-flow common practice)",
+        "cold-fill | Cold fill pressure | 2 bar | 2 bar at 20 °C | ±0.2 bar (common practice) | matches | Matches the design. | Design value from the loop check (VDI 6002-1 water seal; EN 12828)",
+        "precharge | Vessel pre-charge (before filling) | 1.5 bar | 1.5 bar (recommended 1.8 bar) | −0.2 / +0.5 bar (common practice) | matches | Matches the design. | Recommended pre-charge: VDI 6002-1 (from memory), as in the loop check",
+        "fill-margin | Fill pressure above the pre-charge | 0.5 bar above | at least 0.3 bar above | none | matches | The vessel holds fluid when cold (its water seal). | EN 12828, fill at least pre-charge + 0.3 bar (from memory)",
+        "hot-pressure | Hot pressure at 60 °C | 3 bar | 3 bar | ±0.3 bar (common practice) | matches | Matches the design. | Design curve from the loop check (Boyle's law on the vessel's gas side)",
+        "glycol | Glycol concentration | 40 % by mass (freezes at -20.6 °C) | 40 % by mass | ±3 points (common practice) | matches | Matches the design. | Freezing point: Melinder (2010), as in the loop check",
+        "freeze-point | Freeze point | -21 °C | -21 °C | ±2 K (common practice) | matches | Matches the design. | Freezing point: Melinder (2010), as in the loop check",
+        "flow | Flow rate | 100 L/h | 100 L/h | ±20 % (common practice) | matches | Matches the design. | Design flow from the loop check (Kalogirou 2009 low-flow band; high-flow common practice)",
       ]
     `);
   });
@@ -226,17 +221,7 @@ describe("the words each outcome shows", () => {
       design,
     );
     expect(r.differs).toBe(r.items.length);
-    expect(
-      words({
-        coldFillBar: 1.2,
-        prechargeBar: 1.1,
-        hotBar: 2.0,
-        hotTempC: 60,
-        glycolPercentMass: 30,
-        freezePointC: -24,
-        flowLph: 50,
-      }),
-    ).toMatchInlineSnapshot(`
+    expect(r.items.map(line)).toMatchInlineSnapshot(`
       [
         "cold-fill | Cold fill pressure | 1.2 bar | 2 bar at 20 °C | ±0.2 bar (common practice) | differs | Less fluid is held in the vessel: on a cold night the pressure at the collector top can fall far enough for air to be drawn in and the fluid to boil early. Usually topped up with the filling pump, cold. | Design value from the loop check (VDI 6002-1 water seal; EN 12828)",
         "precharge | Vessel pre-charge (before filling) | 1.1 bar | 1.5 bar | −0.2 / +0.5 bar (common practice) | differs | The vessel gives back its fluid too soon as the loop cools, so the collector top loses pressure on cold nights; a pre-charge that has dropped since delivery can also mean a leaking gas valve or diaphragm. Usually set with a tyre pump at the gas valve, vessel empty of fluid. | Recommended pre-charge: VDI 6002-1 (from memory), as in the loop check",
